@@ -1,0 +1,41 @@
+/**
+ * The real 3D FFT of fft3.ts run over a WorkerPool. Fields and spectra must be backed by
+ * SharedArrayBuffer. Each pass splits its lines between workers; results are identical to the
+ * single-thread transform because every line is transformed by the same code.
+ */
+import type { Grid3 } from './grid3.js';
+import type { WorkerPool } from './pool.js';
+import { assertFftShape, axisLineCount, halfSpectrumLength, realForward3, realInverse3, zLineCount } from './fft3.js';
+
+/** A zeroed half spectrum on shared memory (Float64Array, interleaved complex). */
+export function sharedSpectrum(g: Grid3): Float64Array {
+  return new Float64Array(new SharedArrayBuffer(halfSpectrumLength(g) * 8));
+}
+
+/** Forward real 3D FFT of a field into spec, over the pool (single thread when pool is null). */
+export async function realForward3Parallel(pool: WorkerPool | null, field: Float32Array, g: Grid3, spec: Float64Array): Promise<Float64Array> {
+  if (!pool || pool.size < 2) return realForward3(field, g, spec);
+  assertFftShape(g);
+  await pool.runRanges('fftForwardZ', zLineCount(g), [field, spec, g]);
+  await pool.runRanges('fftAxis', axisLineCount(g, 1), [spec, g, 1, false]);
+  await pool.runRanges('fftAxis', axisLineCount(g, 0), [spec, g, 0, false]);
+  return spec;
+}
+
+/** Inverse real 3D FFT of spec into field (normalised; overwrites spec), over the pool. */
+export async function realInverse3Parallel(pool: WorkerPool | null, spec: Float64Array, g: Grid3, field: Float32Array): Promise<void> {
+  if (!pool || pool.size < 2) return realInverse3(spec, g, field);
+  assertFftShape(g);
+  await pool.runRanges('fftAxis', axisLineCount(g, 0), [spec, g, 0, true]);
+  await pool.runRanges('fftAxis', axisLineCount(g, 1), [spec, g, 1, true]);
+  // inverseZ pairs lines; keep ranges even-aligned so pairing (and bytes) match the single-thread run
+  const n = zLineCount(g);
+  const half = Math.floor(n / 2 / pool.size) * 2;
+  const ranges: Array<[number, number]> = [];
+  for (let p = 0, a = 0; p < pool.size; p++) {
+    const b = p === pool.size - 1 ? n : a + half;
+    if (b > a) ranges.push([a, b]);
+    a = b;
+  }
+  await Promise.all(ranges.map(([a, b]) => pool.run('fftInverseZ', [a, b, spec, field, g])));
+}

@@ -1,0 +1,102 @@
+/**
+ * A pool of worker threads that run named tasks on SharedArrayBuffer-backed arrays.
+ *
+ * Work is split into line or cell ranges whose results do not depend on the split, so one
+ * worker and two give the same bytes. The worker script is dist/worker.js (entry src/worker.ts,
+ * which holds the task registry); from the TypeScript sources (tests) the built copy in dist/
+ * is used, so run `npm run build` after changing a task.
+ */
+import { Worker } from 'node:worker_threads';
+import { availableParallelism } from 'node:os';
+import { fileURLToPath } from 'node:url';
+
+/** A message to a worker: task name and its arguments (typed arrays on shared memory are shared). */
+interface Job { id: number; task: string; args: unknown[] }
+interface Reply { id: number; ok: boolean; value?: unknown; error?: string }
+
+/** A running pool of worker threads. */
+export interface WorkerPool {
+  readonly size: number;
+  /** Runs one task on a free worker; resolves with its return value. */
+  run<T>(task: string, args: unknown[]): Promise<T>;
+  /** Splits [0, total) into `size` contiguous ranges and runs task(start, end, ...args) on each. */
+  runRanges<T>(task: string, total: number, args: unknown[]): Promise<T[]>;
+  /** Stops every worker. */
+  close(): Promise<void>;
+}
+
+/** Default number of workers: available cores, at most 8. */
+export function defaultWorkerCount(): number {
+  return Math.max(1, Math.min(8, availableParallelism()));
+}
+
+function workerScript(): string {
+  const here = import.meta.url;
+  if (here.endsWith('.ts')) return fileURLToPath(new URL('../../dist/worker.js', here));
+  return fileURLToPath(new URL('./worker.js', here));
+}
+
+/** Splits [0, total) into n near-equal contiguous ranges. */
+export function splitRange(total: number, n: number): Array<[number, number]> {
+  const out: Array<[number, number]> = [];
+  for (let p = 0; p < n; p++) {
+    const a = Math.floor((total * p) / n);
+    const b = Math.floor((total * (p + 1)) / n);
+    if (b > a) out.push([a, b]);
+  }
+  return out;
+}
+
+/** Starts a pool of `size` worker threads. */
+export function createPool(size: number = defaultWorkerCount()): WorkerPool {
+  const script = workerScript();
+  const workers: Worker[] = [];
+  const idle: Worker[] = [];
+  const queue: Array<{ job: Job; resolve: (v: unknown) => void; reject: (e: Error) => void }> = [];
+  const pending = new Map<number, { resolve: (v: unknown) => void; reject: (e: Error) => void; worker: Worker }>();
+  let nextId = 0;
+
+  const dispatch = (): void => {
+    while (idle.length && queue.length) {
+      const w = idle.pop()!;
+      const item = queue.shift()!;
+      pending.set(item.job.id, { resolve: item.resolve, reject: item.reject, worker: w });
+      w.postMessage(item.job);
+    }
+  };
+
+  for (let i = 0; i < size; i++) {
+    const w = new Worker(script);
+    w.on('message', (r: Reply) => {
+      const p = pending.get(r.id);
+      if (!p) return;
+      pending.delete(r.id);
+      idle.push(w);
+      if (r.ok) p.resolve(r.value);
+      else p.reject(new Error(r.error ?? 'worker task failed'));
+      dispatch();
+    });
+    w.on('error', (e) => {
+      for (const [id, p] of pending) if (p.worker === w) { pending.delete(id); p.reject(e); }
+    });
+    w.unref();
+    workers.push(w);
+    idle.push(w);
+  }
+
+  const run = <T>(task: string, args: unknown[]): Promise<T> =>
+    new Promise<T>((resolve, reject) => {
+      queue.push({ job: { id: nextId++, task, args }, resolve: resolve as (v: unknown) => void, reject });
+      dispatch();
+    });
+
+  return {
+    size,
+    run,
+    runRanges: <T>(task: string, total: number, args: unknown[]) =>
+      Promise.all(splitRange(total, size).map(([a, b]) => run<T>(task, [a, b, ...args]))),
+    close: async () => {
+      await Promise.all(workers.map((w) => w.terminate()));
+    },
+  };
+}

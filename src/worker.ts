@@ -1,0 +1,27 @@
+/**
+ * Worker-thread entry: the registry of tasks a WorkerPool can run (see src/grid/pool.ts).
+ * Each task takes (start, end, ...args) or plain args and writes into shared typed arrays.
+ * Add a task by importing its function and listing it in TASKS.
+ */
+import { parentPort } from 'node:worker_threads';
+import { forwardZ, complexAxis, inverseZ } from './grid/fft3.js';
+import type { Grid3 } from './grid/grid3.js';
+
+type Task = (...args: never[]) => unknown;
+
+const TASKS: Record<string, Task> = {
+  fftForwardZ: (start: number, end: number, field: Float32Array, spec: Float64Array, g: Grid3) => forwardZ(field, spec, g, start, end),
+  fftAxis: (start: number, end: number, spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean) => complexAxis(spec, g, axis, inverse, start, end),
+  fftInverseZ: (start: number, end: number, spec: Float64Array, field: Float32Array, g: Grid3) => inverseZ(spec, field, g, start, end),
+};
+
+parentPort?.on('message', (job: { id: number; task: string; args: unknown[] }) => {
+  const fn = TASKS[job.task];
+  try {
+    if (!fn) throw new Error(`unknown worker task "${job.task}"`);
+    const value = (fn as (...a: unknown[]) => unknown)(...job.args);
+    parentPort!.postMessage({ id: job.id, ok: true, value });
+  } catch (e) {
+    parentPort!.postMessage({ id: job.id, ok: false, error: e instanceof Error ? e.message : String(e) });
+  }
+});
