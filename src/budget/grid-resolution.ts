@@ -1,0 +1,55 @@
+/**
+ * The per-cell Jeans number of a density cube: J = dx / lambda_J with lambda_J at the gas
+ * temperature times the EOS factor (Truelove et al. 1997: resolved when J <= 1/N_J).
+ *
+ * Grid conventions as in src/grid/grid3.ts: shape (nx, ny, nz), C order, index (i*ny + j)*nz + k,
+ * i along x, cell-centred, box [-L/2, L/2)^3; density g/cm^3, temperature K, dx cm.
+ * One pass, no allocation per cell; sums in Float64.
+ */
+import { cellCount, cellSize, type Grid3 } from '../grid/grid3.js';
+import { eosTemperatureFactor, type Eos } from '../physics/eos.js';
+import { jeansNumber } from '../physics/resolution.js';
+import { soundSpeed } from '../physics/sound-speed.js';
+import type { GridResolution } from './types.js';
+
+/** Per-cell Jeans number map, 1/max J, unresolved mass fraction (J > 1/N_J) and cells needing refinement. */
+export function gridResolution(grid: Grid3, density: Float32Array, temperature: number | Float32Array, mu: number, eos: Eos, cellsPerJeansLength: number): GridResolution {
+  const n = cellCount(grid);
+  if (density.length !== n) throw new RangeError(`density has ${density.length} values, the grid ${n}`);
+  if (typeof temperature !== 'number' && temperature.length !== n) throw new RangeError(`temperature has ${temperature.length} values, the grid ${n}`);
+  if (!(cellsPerJeansLength > 0)) throw new RangeError(`cells per Jeans length must be positive, got ${cellsPerJeansLength}`);
+  const dx = cellSize(grid);
+  const jmap = new Float32Array(n);
+  const limit = 1 / cellsPerJeansLength;
+  let maxJ = 0;
+  let mass = 0;
+  let unresolvedMass = 0;
+  let count = 0;
+  const isothermalUniform = typeof temperature === 'number' && eos.kind === 'isothermal';
+  // J is proportional to sqrt(rho) at a fixed sound speed: J(rho) = J(1) sqrt(rho).
+  const jUnit = typeof temperature === 'number' ? jeansNumber(dx, soundSpeed(temperature, mu), 1) : 0;
+  const cs1 = soundSpeed(1, mu); // c_s(T) = c_s(1 K) sqrt(T)
+  for (let i = 0; i < n; i++) {
+    const rho = density[i]!;
+    let j: number;
+    if (!(rho > 0)) j = 0;
+    else if (isothermalUniform) j = jUnit * Math.sqrt(rho);
+    else {
+      const t = (typeof temperature === 'number' ? temperature : temperature[i]!) * eosTemperatureFactor(eos, rho);
+      j = t > 0 ? jeansNumber(dx, cs1 * Math.sqrt(t), rho) : Infinity;
+    }
+    jmap[i] = j;
+    if (rho > 0) mass += rho;
+    if (j > maxJ) maxJ = j;
+    if (j > limit) {
+      unresolvedMass += rho;
+      count++;
+    }
+  }
+  return {
+    jeansNumber: jmap,
+    jeansCellsMin: maxJ > 0 ? 1 / maxJ : Infinity,
+    unresolvedMassFraction: mass > 0 ? unresolvedMass / mass : 0,
+    cellsNeedingRefinement: count,
+  };
+}
