@@ -31,7 +31,8 @@ export function budgetText(b: BudgetResult, g: GridResolution | null = null): st
     }
   } else {
     const l = b.levels[0]!;
-    L.push(`Resolution: densest gas resolved ${fmt(l.maxResolvedDensity)} g/cm^3 (n(H2) ${fmt(h2NumberDensity(l.maxResolvedDensity))} cm^-3, T ${fmt(l.temperature)} K), where the Jeans mass falls to the resolvable ${fmt(toUnit(l.jeansMass, 'Msun'))} Msun; smoothing length there ${fmt(toUnit(l.cellSize, 'au'))} au.`);
+    if (!Number.isFinite(l.maxResolvedDensity)) L.push(`Resolution: every density is resolved: the EOS Jeans mass never falls to the resolvable ${fmt(toUnit(l.jeansMass, 'Msun'))} Msun.`);
+    else L.push(`Resolution: densest gas resolved ${fmt(l.maxResolvedDensity)} g/cm^3 (n(H2) ${fmt(h2NumberDensity(l.maxResolvedDensity))} cm^-3, T ${fmt(l.temperature)} K), where the Jeans mass falls to the resolvable ${fmt(toUnit(l.jeansMass, 'Msun'))} Msun; smoothing length there ${fmt(toUnit(l.cellSize, 'au'))} au.`);
   }
   const needUnit = b.code === 'grid' ? 'level(s)' : 'particles';
   const forTarget = b.code === 'grid' ? b.levelsForTarget : b.particlesForTarget;
@@ -46,8 +47,9 @@ export function budgetText(b: BudgetResult, g: GridResolution | null = null): st
   L.push(`        smallest that meets both: ${needed === null ? 'none' : `${fmt(needed)} ${needUnit}`} (planned: ${fmt(planned)}).`);
   L.push(b.code === 'grid'
     ? `Sinks: accretion radius ${fmt(b.sinkRadiusCells)} finest cells = ${fmt(toUnit(b.sinkRadius, 'au'))} au, threshold ${fmt(b.sinkThreshold)} g/cm^3 (Federrath et al. 2010).`
-    : `Sinks: threshold at the resolution limit ${fmt(b.sinkThreshold)} g/cm^3, accretion radius ${fmt(b.sinkRadiusCells)} h = ${fmt(toUnit(b.sinkRadius, 'au'))} au.`);
-  L.push(`The run stops resolving above ${fmt(b.maxResolvedDensity)} g/cm^3 (T = ${fmt(b.temperatureAtLimit)} K); free-fall time there ${fmt(toUnit(b.freeFallTimeAtLimit, 'yr'))} yr; smallest fragment resolved ${fmt(toUnit(b.jeansMassAtLimit, 'Msun'))} Msun.`);
+    : `Sinks: threshold ${fmt(b.sinkThreshold)} g/cm^3 (${Number.isFinite(b.maxResolvedDensity) ? 'the resolution limit' : 'the density the run needs; resolution never ends'}), accretion radius ${fmt(b.sinkRadiusCells)} h = ${fmt(toUnit(b.sinkRadius, 'au'))} au.`);
+  if (!Number.isFinite(b.maxResolvedDensity)) L.push('The run never stops resolving under this EOS (the resolution limit is not reached at any density).');
+  else L.push(`The run stops resolving above ${fmt(b.maxResolvedDensity)} g/cm^3 (T = ${fmt(b.temperatureAtLimit)} K); free-fall time there ${fmt(toUnit(b.freeFallTimeAtLimit, 'yr'))} yr; smallest fragment resolved ${fmt(toUnit(b.jeansMassAtLimit, 'Msun'))} Msun.`);
   if (g) {
     L.push(`At t = 0 on the generated grid: at least ${fmt(g.jeansCellsMin)} cells per Jeans length; ${fmt(100 * g.unresolvedMassFraction)} % of the mass (${fmt(g.cellsNeedingRefinement)} cells) has fewer than ${fmt(p.cellsPerJeansLength)} and needs refinement.`);
   }

@@ -80,7 +80,7 @@ export function gridCost(plan: BudgetPlan, cloud: BudgetCloud, eos: Eos, convent
   ];
   if (plan.levels > 0) {
     assumptions.push(
-      `refined cells: at each level, the cloud volume denser than the coarser level's resolved density under a lognormal density PDF of width sigma_s = ${plan.sigmaS.toFixed(2)} (Padoan, Nordlund & Jones 1997), plus ${centres} collapsing core(s) (one per thermal Jeans mass of the cloud) each with an r^-2 envelope (singular isothermal sphere, Shu 1977) refined where it outgrows the coarser level; refined cells counted as present for the whole run, each level advancing at its own Courant step; AMR block and buffer overheads not included`,
+      `refined cells: at each level, the cloud volume denser than the coarser level's resolved density under a lognormal density PDF of width sigma_s = ${plan.sigmaS.toFixed(2)} (Padoan, Nordlund & Jones 1997), plus ${centres} collapsing core(s) (one per thermal Jeans mass of the cloud) each with an r^-2 envelope (singular isothermal sphere, Shu 1977) refined where it outgrows the coarser level; refined cells counted as present for the whole run, each level advancing at its own Courant step; AMR block and buffer overheads and the power-law density tail that gravity adds are not included, so this is likely a lower bound`,
     );
   }
   assumptions.push(plan.throughput === null

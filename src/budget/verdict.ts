@@ -27,6 +27,9 @@ export function decideVerdict(p: {
   if (p.maxResolvedDensity < p.peakDensity) {
     return { status: 'not resolved', reason: `the densest gas already present at t = 0 (${fmt(p.peakDensity)} g/cm^3) exceeds the ${got} the run resolves` };
   }
+  if (!Number.isFinite(p.maxResolvedDensity)) {
+    return { status: 'resolved', reason: `resolves gas at every density: with this EOS the Jeans ${p.code === 'grid' ? 'length' : 'mass'} never falls below the resolution limit (needed: ${need})` };
+  }
   const ratio = p.maxResolvedDensity / p.requiredDensity;
   if (ratio >= 1) {
     return { status: 'resolved', reason: `resolves gas up to ${got}, ${fmt(ratio)}x the ${need} it needs` };
