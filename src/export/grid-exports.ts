@@ -38,6 +38,8 @@ export interface GridExportOptions {
   force: boolean;
   /** A manifest already in icDir to merge into (its manifest.json is then replaced). */
   previous?: IcManifest | null;
+  /** Called with each file name (relative to icDir) once it is written. */
+  onWritten?: (name: string) => void;
   /** Mean molecular weight for the internal energy; default cloud.summary.mu. */
   mu?: number;
 }
@@ -133,6 +135,7 @@ export async function writeGridExports(cloudIn: Cloud, icDir: string, opts: Grid
   const files: Record<string, IcFileRecord> = {};
   const record = (name: string, r: Omit<IcFileRecord, 'unit_system' | 'dtype'>): void => {
     files[name] = { ...r, dtype, unit_system: u.name } as IcFileRecord;
+    opts.onWritten?.(name);
   };
   const shape: [number, number, number] = [g.nx, g.ny, g.nz];
   const headerBytes = npyHeader(dtype, shape).length;
