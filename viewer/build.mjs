@@ -23,9 +23,12 @@ await build({
   logLevel: 'warning',
 });
 
-if (!existsSync(r('viewer/src/main.ts'))) {
-  console.warn('viewer/src/main.ts not found: viewer not built');
-  process.exit(0);
+// The viewer (three.js page): a missing source is an error, not a skipped step.
+for (const f of ['viewer/src/main.ts', 'viewer/index.html', 'viewer/style.css']) {
+  if (!existsSync(r(f))) {
+    console.error(`${f} not found: cannot build the viewer`);
+    process.exit(1);
+  }
 }
 await mkdir(r('dist/viewer'), { recursive: true });
 await build({
@@ -36,6 +39,7 @@ await build({
   format: 'esm',
   target: 'es2022',
   minify: true,
+  legalComments: 'none',
   logLevel: 'warning',
 });
 await copyFile(r('viewer/index.html'), r('dist/viewer/index.html'));

@@ -1,0 +1,140 @@
+/**
+ * The key numbers of a run, read from summary.json: the one list both report.html and the
+ * terminal summary print, so the two always agree. Values are formatted by formatNumber.
+ */
+import type { Summary } from './summary-types.js';
+import { formatNumber } from './format-number.js';
+
+/** One key number: label for people, formatted value, unit; `key` is its summary.json path. */
+export interface KeyNumber {
+  label: string;
+  value: string;
+  unit: string;
+  /** Path in summary.json, e.g. "cloud.mass_msun". */
+  key: string;
+  /** Section heading: Cloud, Grid, Resolution, Hierarchy, Cost. */
+  group: string;
+}
+
+/** The verdict on resolution, when the run has one. */
+export interface VerdictText {
+  status: string;
+  reason: string;
+}
+
+type Row = readonly [key: string, label: string, unit: string];
+
+const CLOUD: Row[] = [
+  ['mass_msun', 'Cloud mass', 'Msun'],
+  ['radius_pc', 'Cloud radius', 'pc'],
+  ['temperature_k', 'Temperature', 'K'],
+  ['mu', 'Mean molecular weight', ''],
+  ['mean_density_gcc', 'Mean density', 'g cm^-3'],
+  ['sound_speed_kms', 'Sound speed', 'km/s'],
+  ['mach', 'Mach number (rms)', ''],
+  ['virial_parameter', 'Virial parameter', ''],
+  ['alpha_thermal', 'Thermal energy ratio (alpha)', ''],
+  ['beta_rotation', 'Rotational energy ratio (beta)', ''],
+  ['jeans_mass_msun', 'Jeans mass', 'Msun'],
+  ['jeans_length_pc', 'Jeans length', 'pc'],
+  ['free_fall_time_myr', 'Free-fall time', 'Myr'],
+];
+const GRID: Row[] = [
+  ['cells_per_side', 'Cells per side', ''],
+  ['box_size_pc', 'Box size', 'pc'],
+  ['cell_size_pc', 'Cell size', 'pc'],
+  ['mass_on_grid_msun', 'Mass on grid (cloud and ambient)', 'Msun'],
+];
+const RESOLUTION: Row[] = [
+  ['jeans_cells_min', 'Fewest cells per Jeans length', ''],
+  ['unresolved_mass_fraction', 'Mass fraction under-resolved', ''],
+  ['max_resolved_density_gcc', 'Densest gas resolved', 'g cm^-3'],
+  ['levels_needed', 'Refinement levels needed', ''],
+  ['sink_threshold_gcc', 'Sink density threshold', 'g cm^-3'],
+  ['sink_radius_pc', 'Sink accretion radius', 'pc'],
+];
+const HIERARCHY: Row[] = [
+  ['nodes', 'Tree nodes', ''],
+  ['unstable_nodes', 'Jeans-unstable nodes', ''],
+  ['fragment_candidates', 'Fragment candidates', ''],
+  ['expected_fragments', 'Expected fragments', ''],
+  ['cmf_slope', 'Candidate mass spectrum slope', ''],
+];
+
+function rows(block: Record<string, unknown> | undefined, name: string, group: string, list: Row[]): KeyNumber[] {
+  if (!block) return [];
+  const out: KeyNumber[] = [];
+  for (const [key, label, unit] of list) {
+    if (!(key in block)) continue;
+    const v = block[key];
+    if (v !== null && typeof v !== 'number') continue;
+    out.push({ label, value: formatNumber(v), unit, key: `${name}.${key}`, group });
+  }
+  return out;
+}
+
+/** The key numbers of a summary, in reading order; blocks or keys the summary lacks are left out, null values read "n/a". */
+export function keyNumbers(summary: Summary): KeyNumber[] {
+  const cloud = summary.cloud as Record<string, unknown> | undefined;
+  const out = rows(cloud, 'cloud', 'Cloud', CLOUD);
+  const jm = out.find((r) => r.key === 'cloud.jeans_mass_msun');
+  if (jm && typeof cloud?.jeans_mass_definition === 'string' && cloud.jeans_mass_definition) {
+    jm.label = `Jeans mass (${cloud.jeans_mass_definition})`;
+  }
+  out.push(...rows(summary.grid as Record<string, unknown>, 'grid', 'Grid', GRID));
+  out.push(...rows(summary.resolution, 'resolution', 'Resolution', RESOLUTION));
+  out.push(...rows(summary.hierarchy, 'hierarchy', 'Hierarchy', HIERARCHY));
+  if (summary.cost) {
+    const cost: Row[] = Object.keys(summary.cost)
+      .filter((k) => typeof summary.cost?.[k] === 'number')
+      .map((k) => [k, costLabel(k), unitFromKey(k)] as const);
+    out.push(...rows(summary.cost, 'cost', 'Cost', cost));
+  }
+  return out;
+}
+
+/** The resolution verdict of a summary ({status, reason} or a plain string), or null. */
+export function verdictOf(summary: Summary): VerdictText | null {
+  const v = summary.resolution?.verdict;
+  if (typeof v === 'string') return { status: v, reason: '' };
+  if (v && typeof v === 'object') {
+    const o = v as Record<string, unknown>;
+    const status = typeof o.status === 'string' ? o.status : '';
+    const reason = typeof o.reason === 'string' ? o.reason : '';
+    if (status || reason) return { status, reason };
+  }
+  return null;
+}
+
+const UNIT_SUFFIXES: Array<[string, string]> = [
+  ['_core_hours', 'core-hours'],
+  ['_hours', 'h'],
+  ['_gib', 'GiB'],
+  ['_gb', 'GB'],
+  ['_bytes', 'bytes'],
+  ['_myr', 'Myr'],
+  ['_yr', 'yr'],
+  ['_s', 's'],
+  ['_pc', 'pc'],
+  ['_msun', 'Msun'],
+  ['_gcc', 'g cm^-3'],
+];
+
+/** The first unit suffix a key carries: the key is the unit's own name (e.g. "core_hours") or ends in "_<unit>". */
+function splitUnit(key: string): { base: string; unit: string } {
+  for (const [suffix, unit] of UNIT_SUFFIXES) {
+    if (key === suffix.slice(1)) return { base: key, unit };
+    if (key.endsWith(suffix)) return { base: key.slice(0, -suffix.length), unit };
+  }
+  return { base: key, unit: '' };
+}
+
+/** The unit named by a snake_case key's suffix (e.g. "wall_time_hours" -> "h", "core_hours" -> "core-hours"), or "". */
+export function unitFromKey(key: string): string {
+  return splitUnit(key).unit;
+}
+
+function costLabel(key: string): string {
+  const words = splitUnit(key).base.replace(/_/g, ' ').trim();
+  return words.charAt(0).toUpperCase() + words.slice(1);
+}
