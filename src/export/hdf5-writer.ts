@@ -61,8 +61,18 @@ export async function hashFile(file: string): Promise<WrittenFile> {
   return { sha256: hash.digest('hex'), bytes };
 }
 
-function setAttrs(obj: { create_attribute(name: string, data: string | number | Float64Array): void }, attrs: Record<string, string | number | number[]>): void {
-  for (const [k, v] of Object.entries(attrs)) obj.create_attribute(k, Array.isArray(v) ? new Float64Array(v) : v);
+/** Attribute keys stored as 32-bit integers; every other number is a float64 (h5wasm would guess an integer type for large whole numbers). */
+const INTEGER_ATTRS = new Set(['seed', 'shape']);
+
+type AttrTarget = { create_attribute(name: string, data: string | number | Float64Array | Int32Array, shape?: number[] | null, dtype?: string | null): void };
+
+function setAttrs(obj: AttrTarget, attrs: Record<string, string | number | number[]>): void {
+  for (const [k, v] of Object.entries(attrs)) {
+    const int = INTEGER_ATTRS.has(k);
+    if (Array.isArray(v)) obj.create_attribute(k, int ? new Int32Array(v) : new Float64Array(v), null, int ? '<i4' : '<d');
+    else if (typeof v === 'number') obj.create_attribute(k, v, null, int ? '<i4' : '<d');
+    else obj.create_attribute(k, v);
+  }
 }
 
 /** Writes the HDF5 file (temp name, then rename); returns its sha256 and size. */
