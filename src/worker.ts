@@ -6,6 +6,8 @@
 import { parentPort } from 'node:worker_threads';
 import { forwardZ, complexAxis, inverseZ } from './grid/fft3.js';
 import type { Grid3 } from './grid/grid3.js';
+import { GENERATE_TASKS } from './generate/worker-tasks.js';
+import { SURVEY_TASKS } from './survey/worker-tasks.js';
 
 type Task = (...args: never[]) => unknown;
 
@@ -13,6 +15,8 @@ const TASKS: Record<string, Task> = {
   fftForwardZ: (start: number, end: number, field: Float32Array, spec: Float64Array, g: Grid3) => forwardZ(field, spec, g, start, end),
   fftAxis: (start: number, end: number, spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean) => complexAxis(spec, g, axis, inverse, start, end),
   fftInverseZ: (start: number, end: number, spec: Float64Array, field: Float32Array, g: Grid3) => inverseZ(spec, field, g, start, end),
+  ...GENERATE_TASKS,
+  ...SURVEY_TASKS,
 };
 
 parentPort?.on('message', (job: { id: number; task: string; args: unknown[] }) => {

@@ -55,6 +55,14 @@ export interface CloudSummary {
   kMin: number | null;
   kMax: number | null;
   solenoidalWeight: number | null;
+  /** Gravitational energy W of the smooth envelope, erg (radial integral for spheres; -G lambda^2 L for filaments). */
+  gravitationalEnergy?: number;
+  /** Thermal energy (3/2) sum m k_B T / (mu m_H) of the cloud cells, erg. */
+  thermalEnergy?: number;
+  /** Solid-body rotational energy (1/2) I Omega^2 of the cloud, erg (0 without rotation). */
+  rotationalEnergy?: number;
+  /** Central density of the envelope model before structure, g/cm^3. */
+  peakDensity?: number;
   /** Notes worth showing the user (e.g. the mass correction). */
   notes: string[];
 }

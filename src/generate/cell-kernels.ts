@@ -1,0 +1,42 @@
+/**
+ * Per-cell kernels of the generator, run on cell or x-row ranges by worker threads.
+ *
+ * Grid conventions (src/grid/grid3.ts): shape (nx, ny, nz), C order, flat index
+ * (i*ny + j)*nz + k, i along x, cell-centred, box [-L/2, L/2)^3, Float32 fields in cgs.
+ * Every kernel writes only its own range, so the bytes do not depend on the split.
+ */
+import type { Grid3 } from '../grid/grid3.js';
+import { cellCentre } from '../grid/grid3.js';
+import { envelopeDensity, type EnvelopeParams } from './envelope.js';
+
+/**
+ * Writes the envelope density (g/cm^3) at cell centres of x-rows [start, end): inside cells get
+ * the profile and inside = 1; the rest get the ambient density and inside = 0.
+ */
+export function gridEnvelope(start: number, end: number, p: EnvelopeParams, g: Grid3, ambient: number, density: Float32Array, inside: Uint8Array): void {
+  const { ny, nz, boxSize: L } = g;
+  for (let i = start; i < end; i++) {
+    const x = cellCentre(i, g.nx, L);
+    for (let j = 0; j < ny; j++) {
+      const y = cellCentre(j, ny, L);
+      const base = (i * ny + j) * nz;
+      for (let k = 0; k < nz; k++) {
+        const rho = envelopeDensity(p, x, y, cellCentre(k, nz, L));
+        if (rho > 0) {
+          density[base + k] = rho;
+          inside[base + k] = 1;
+        } else {
+          density[base + k] = ambient;
+          inside[base + k] = 0;
+        }
+      }
+    }
+  }
+}
+
+/** Multiplies inside cells [start, end) of density by exp((s - mean) * scale - shift); dimensionless s. */
+export function applyLognormal(start: number, end: number, density: Float32Array, s: Float32Array, inside: Uint8Array, mean: number, scale: number, shift: number): void {
+  for (let c = start; c < end; c++) {
+    if (inside[c]) density[c] = density[c]! * Math.exp((s[c]! - mean) * scale - shift);
+  }
+}

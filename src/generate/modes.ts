@@ -1,0 +1,131 @@
+/**
+ * Fourier-mode kernels of the generator: turbulent velocity and ln-density spectra.
+ *
+ * Layout as in src/grid/fft3.ts: half spectrum (nx, ny, nz/2 + 1), interleaved complex, element
+ * ((i*ny + j)*nh + kz)*2; signed integer wavenumbers in cycles per box. Each mode's random
+ * numbers come from modeGaussian (src/grid/random-field.ts), a hash of (seed key, stream,
+ * kx, ky, kz): the same seed gives the same modes at every resolution, so a band with a fixed
+ * k_max holds the same field at 64^3, 128^3 and 256^3. Streams: velocity 1, 2, 3 (the three
+ * components of the raw vector w), ln density 4. On the kz = 0 plane the mode of (-kx, -ky, 0)
+ * is computed at its canonical partner and conjugated (Hermitian symmetry); the k = 0 mode and
+ * modes with a Nyquist component are zero, as in gaussianModes.
+ *
+ * Velocity: v(k) = A(k) [zeta P_perp + (1 - zeta) P_par] w(k), with P_par = khat khat^T and
+ * P_perp = 1 - P_par (Helmholtz projection with weight zeta, Federrath et al. 2010) and
+ * A(k) = k^(-n/2) in the band k_min <= |k| <= k_max, so <|v(k)|^2> ~ k^-n.
+ * ln density: s(k) = k^(-n_s/2) [sqrt(1 - c^2) z(k) + c (-i khat . w(k))]. The second term has
+ * the Fourier phase of the convergence -div v of the compressive velocity part, so c is the
+ * correlation, mode by mode, between ln rho and the convergence: dense gas sits where flows
+ * converge. Both terms are unit complex Gaussians, so the spectrum and the Gaussian statistics
+ * of s do not depend on c. (A statistical preview of where turbulence piles up gas, not the
+ * outcome of a simulation.)
+ *
+ * Kernels fill x-index rows [start, end); results do not depend on how rows are split.
+ */
+import type { Grid3 } from '../grid/grid3.js';
+import { halfLength, signedWavenumber } from '../grid/fft3.js';
+import { modeGaussian } from '../grid/random-field.js';
+
+/** Random-number streams of the generator (see the file comment). */
+export const STREAM_VELOCITY = [1, 2, 3] as const;
+export const STREAM_LOG_DENSITY = 4;
+
+/** Parameters of the velocity spectrum (plain data for workers). */
+export interface VelocityModeParams {
+  /** Seed key from seedKey(seed). */
+  readonly key: number;
+  readonly index: number;
+  readonly kMin: number;
+  readonly kMax: number;
+  /** Helmholtz weight: 1 solenoidal, 0 compressive. */
+  readonly zeta: number;
+}
+
+/** Parameters of the ln-density spectrum (plain data for workers). */
+export interface LogDensityModeParams {
+  readonly key: number;
+  readonly index: number;
+  readonly kMin: number;
+  readonly kMax: number;
+  /** Coupling c in [0, 1] to the convergent velocity modes. */
+  readonly coupling: number;
+}
+
+/** Calls fn(idx, kx, ky, kz, flip) for every non-zero in-band mode of rows [start, end); zeroes the rest. */
+function forBand(
+  g: Grid3, start: number, end: number, kMin: number, kMax: number, zero: (idx: number) => void,
+  fn: (idx: number, kx: number, ky: number, kz: number, k: number, flip: boolean) => void,
+): void {
+  const { nx, ny, nz } = g;
+  const nh = halfLength(nz);
+  for (let i = start; i < end; i++) {
+    const kx = signedWavenumber(i, nx);
+    for (let j = 0; j < ny; j++) {
+      const ky = signedWavenumber(j, ny);
+      for (let c = 0; c < nh; c++) {
+        const idx = ((i * ny + j) * nh + c) * 2;
+        const nyq = 2 * Math.abs(kx) === nx || 2 * Math.abs(ky) === ny || 2 * c === nz;
+        const k = Math.sqrt(kx * kx + ky * ky + c * c);
+        if (nyq || k === 0 || k < kMin || k > kMax) {
+          zero(idx);
+          continue;
+        }
+        if (c === 0 && (ky < 0 || (ky === 0 && kx < 0))) fn(idx, -kx, -ky, 0, k, true);
+        else fn(idx, kx, ky, c, k, false);
+      }
+    }
+  }
+}
+
+/** Fills the three velocity-component half spectra (rows [start, end)) per the file comment. */
+export function fillVelocityModes(start: number, end: number, vx: Float64Array, vy: Float64Array, vz: Float64Array, g: Grid3, p: VelocityModeParams): void {
+  const w0 = new Float64Array(2), w1 = new Float64Array(2), w2 = new Float64Array(2);
+  const specs = [vx, vy, vz];
+  const a = 1 - 2 * p.zeta;
+  forBand(g, start, end, p.kMin, p.kMax, (idx) => {
+    for (const s of specs) { s[idx] = 0; s[idx + 1] = 0; }
+  }, (idx, kx, ky, kz, k, flip) => {
+    modeGaussian(p.key, STREAM_VELOCITY[0], kx, ky, kz, w0);
+    modeGaussian(p.key, STREAM_VELOCITY[1], kx, ky, kz, w1);
+    modeGaussian(p.key, STREAM_VELOCITY[2], kx, ky, kz, w2);
+    const hx = kx / k, hy = ky / k, hz = kz / k;
+    const dr = hx * w0[0]! + hy * w1[0]! + hz * w2[0]!;
+    const di = hx * w0[1]! + hy * w1[1]! + hz * w2[1]!;
+    const amp = k ** (-p.index / 2);
+    const sg = flip ? -1 : 1;
+    vx[idx] = amp * (p.zeta * w0[0]! + a * hx * dr);
+    vx[idx + 1] = sg * amp * (p.zeta * w0[1]! + a * hx * di);
+    vy[idx] = amp * (p.zeta * w1[0]! + a * hy * dr);
+    vy[idx + 1] = sg * amp * (p.zeta * w1[1]! + a * hy * di);
+    vz[idx] = amp * (p.zeta * w2[0]! + a * hz * dr);
+    vz[idx + 1] = sg * amp * (p.zeta * w2[1]! + a * hz * di);
+  });
+}
+
+/** Fills the ln-density half spectrum (rows [start, end)) per the file comment. */
+export function fillLogDensityModes(start: number, end: number, spec: Float64Array, g: Grid3, p: LogDensityModeParams): void {
+  const z = new Float64Array(2), w0 = new Float64Array(2), w1 = new Float64Array(2), w2 = new Float64Array(2);
+  const c = p.coupling;
+  const ci = Math.sqrt(Math.max(0, 1 - c * c));
+  forBand(g, start, end, p.kMin, p.kMax, (idx) => { spec[idx] = 0; spec[idx + 1] = 0; }, (idx, kx, ky, kz, k, flip) => {
+    let re = 0, im = 0;
+    if (ci > 0) {
+      modeGaussian(p.key, STREAM_LOG_DENSITY, kx, ky, kz, z);
+      re = ci * z[0]!;
+      im = ci * z[1]!;
+    }
+    if (c > 0) {
+      modeGaussian(p.key, STREAM_VELOCITY[0], kx, ky, kz, w0);
+      modeGaussian(p.key, STREAM_VELOCITY[1], kx, ky, kz, w1);
+      modeGaussian(p.key, STREAM_VELOCITY[2], kx, ky, kz, w2);
+      const dr = (kx * w0[0]! + ky * w1[0]! + kz * w2[0]!) / k;
+      const di = (kx * w0[1]! + ky * w1[1]! + kz * w2[1]!) / k;
+      // -i (dr + i di) = di - i dr
+      re += c * di;
+      im -= c * dr;
+    }
+    const amp = k ** (-p.index / 2);
+    spec[idx] = amp * re;
+    spec[idx + 1] = (flip ? -1 : 1) * amp * im;
+  });
+}

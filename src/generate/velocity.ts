@@ -1,0 +1,99 @@
+/**
+ * The cloud's velocity: turbulence (spectrum, Helmholtz mix, normalisation, zero net momentum
+ * and optionally zero net angular momentum) and solid-body rotation.
+ *
+ * Grid conventions (src/grid/grid3.ts): shape (nx, ny, nz), C order, flat index
+ * (i*ny + j)*nz + k, i along x, cell-centred, box [-L/2, L/2)^3; velocities Float32 in cm/s.
+ * The ambient gas is at rest: velocities are set only in cloud cells (inside = 1).
+ * Order: modes (modes.ts) -> inverse real FFTs -> zero outside -> subtract the mass-weighted
+ * mean (zero net momentum) -> optionally subtract the best-fitting rigid rotation about the
+ * centre of mass, omega = I^-1 L (zero net angular momentum) -> scale so the mass-weighted rms
+ * 3D speed over the cloud is the target. Rotation is added afterwards about the centre of mass.
+ */
+import type { Grid3 } from '../grid/grid3.js';
+import { cellVolume } from '../grid/grid3.js';
+import type { WorkerPool } from '../grid/pool.js';
+import { realInverse3Parallel } from '../grid/fft3-parallel.js';
+import { fillVelocityModes, type VelocityModeParams } from './modes.js';
+import { angularMoments, axisCentres, solve3, velocityMoments } from './moments.js';
+
+type Vec3Field = readonly [Float32Array, Float32Array, Float32Array];
+
+/** Fills v with the raw turbulent field (unnormalised) on the cloud; spectra are 3 scratch half spectra (overwritten). */
+export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: VelocityModeParams, specs: readonly [Float64Array, Float64Array, Float64Array], v: Vec3Field, onStep: () => void): Promise<void> {
+  if (pool) await pool.runRanges('genVelocityModes', g.nx, [specs[0], specs[1], specs[2], g, p]);
+  else fillVelocityModes(0, g.nx, specs[0], specs[1], specs[2], g, p);
+  onStep();
+  for (let a = 0; a < 3; a++) {
+    await realInverse3Parallel(pool, specs[a]!, g, v[a]!);
+    onStep();
+  }
+}
+
+/** Zeroes v outside the cloud and subtracts the mass-weighted mean velocity of the cloud (cm/s). */
+export function removeNetMomentum(g: Grid3, density: Float32Array, inside: Uint8Array, v: Vec3Field): void {
+  for (let c = 0; c < inside.length; c++) if (!inside[c]) { v[0][c] = 0; v[1][c] = 0; v[2][c] = 0; }
+  const mom = velocityMoments(g, density, inside, v);
+  if (!(mom.mass > 0)) return;
+  const mean = mom.momentum.map((p) => p / mom.mass);
+  for (let a = 0; a < 3; a++) {
+    const f = v[a]!, m = mean[a]!;
+    for (let c = 0; c < f.length; c++) if (inside[c]) f[c] = f[c]! - m;
+  }
+}
+
+/** Adds omega x (r - centre) to v in cloud cells; omega in s^-1 (vector), centre in cm. */
+export function addRigidRotation(g: Grid3, inside: Uint8Array, v: Vec3Field, omega: readonly number[], centre: readonly number[]): void {
+  const { nx, ny, nz, boxSize: L } = g;
+  const xs = axisCentres(nx, L), ys = axisCentres(ny, L), zs = axisCentres(nz, L);
+  const [wx, wy, wz] = omega as [number, number, number];
+  for (let i = 0, c = 0; i < nx; i++) {
+    const x = xs[i]! - centre[0]!;
+    for (let j = 0; j < ny; j++) {
+      const y = ys[j]! - centre[1]!;
+      for (let k = 0; k < nz; k++, c++) {
+        if (!inside[c]) continue;
+        const z = zs[k]! - centre[2]!;
+        v[0][c] = v[0][c]! + (wy * z - wz * y);
+        v[1][c] = v[1][c]! + (wz * x - wx * z);
+        v[2][c] = v[2][c]! + (wx * y - wy * x);
+      }
+    }
+  }
+}
+
+/** Removes the rigid rotation that carries the cloud's angular momentum about its centre of mass (cm). */
+export function removeNetAngularMomentum(g: Grid3, density: Float32Array, inside: Uint8Array, v: Vec3Field, centre: readonly number[]): void {
+  const { l, inertia } = angularMoments(g, density, inside, v, centre);
+  const w = solve3(inertia, l);
+  addRigidRotation(g, inside, v, w.map((x) => -x), centre);
+}
+
+/** Multiplies v by factor in cloud cells. */
+export function scaleVelocity(inside: Uint8Array, v: Vec3Field, factor: number): void {
+  for (let a = 0; a < 3; a++) {
+    const f = v[a]!;
+    for (let c = 0; c < f.length; c++) if (inside[c]) f[c] = f[c]! * factor;
+  }
+}
+
+/** Moment of inertia, g cm^2, of the cloud about the axis (unit vector) through centre (cm). */
+export function momentOfInertia(g: Grid3, density: Float32Array, inside: Uint8Array, axis: readonly number[], centre: readonly number[]): number {
+  const { nx, ny, nz, boxSize: L } = g;
+  const xs = axisCentres(nx, L), ys = axisCentres(ny, L), zs = axisCentres(nz, L);
+  const [ax, ay, az] = axis as [number, number, number];
+  let s = 0;
+  for (let i = 0, c = 0; i < nx; i++) {
+    const x = xs[i]! - centre[0]!;
+    for (let j = 0; j < ny; j++) {
+      const y = ys[j]! - centre[1]!;
+      for (let k = 0; k < nz; k++, c++) {
+        if (!inside[c]) continue;
+        const z = zs[k]! - centre[2]!;
+        const along = x * ax + y * ay + z * az;
+        s += density[c]! * (x * x + y * y + z * z - along * along);
+      }
+    }
+  }
+  return s * cellVolume(g);
+}

@@ -1,0 +1,15 @@
+/**
+ * The generator's worker-thread tasks, spread into TASKS in src/worker.ts.
+ * Each takes (start, end, ...args) over x-rows or flat cell ranges and writes shared arrays;
+ * conventions of the kernels are in modes.ts and cell-kernels.ts.
+ */
+import { fillLogDensityModes, fillVelocityModes } from './modes.js';
+import { applyLognormal, gridEnvelope } from './cell-kernels.js';
+
+/** Task name -> function, for the worker registry. */
+export const GENERATE_TASKS = {
+  genVelocityModes: fillVelocityModes,
+  genLogDensityModes: fillLogDensityModes,
+  genEnvelope: gridEnvelope,
+  genLognormal: applyLognormal,
+} as const;
