@@ -25,18 +25,20 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
   let mass = 0;
   let unresolvedMass = 0;
   let count = 0;
-  const isothermalUniform = typeof temperature === 'number' && eos.kind === 'isothermal';
-  // J is proportional to sqrt(rho) at a fixed sound speed: J(rho) = J(1) sqrt(rho).
-  const jUnit = typeof temperature === 'number' ? jeansNumber(dx, soundSpeed(temperature, mu), 1) : 0;
-  const cs1 = soundSpeed(1, mu); // c_s(T) = c_s(1 K) sqrt(T)
+  // J = dx / lambda_J is proportional to sqrt(rho / T) (c_s^2 ~ T): J = J(rho = 1, T = 1 K) sqrt(rho / T).
+  const j1 = jeansNumber(dx, soundSpeed(1, mu), 1);
+  const scalarT = typeof temperature === 'number' ? temperature : 0;
+  const field = typeof temperature === 'number' ? null : temperature;
+  const baro = eos.kind === 'barotropic';
+  const jUniform = field === null && !baro ? j1 / Math.sqrt(scalarT) : 0;
   for (let i = 0; i < n; i++) {
     const rho = density[i]!;
     let j: number;
     if (!(rho > 0)) j = 0;
-    else if (isothermalUniform) j = jUnit * Math.sqrt(rho);
+    else if (jUniform > 0) j = jUniform * Math.sqrt(rho);
     else {
-      const t = (typeof temperature === 'number' ? temperature : temperature[i]!) * eosTemperatureFactor(eos, rho);
-      j = t > 0 ? jeansNumber(dx, cs1 * Math.sqrt(t), rho) : Infinity;
+      const t = (field === null ? scalarT : field[i]!) * (baro ? eosTemperatureFactor(eos, rho) : 1);
+      j = t > 0 ? j1 * Math.sqrt(rho / t) : Infinity;
     }
     jmap[i] = j;
     if (rho > 0) mass += rho;
