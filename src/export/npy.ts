@@ -84,7 +84,8 @@ export function decodeNpy(bytes: Uint8Array, source = 'array'): NpyArray {
   const start = pre + headerLen;
   const need = n * BYTES[dtype];
   if (bytes.length - start !== need) throw new InputError(`${source}: expected ${need} data bytes for shape (${shape.join(', ')}) ${descr}, found ${bytes.length - start}`);
-  const copy = bytes.slice(start, start + need);
+  // a real copy (Buffer.prototype.slice returns a view on a shared pool, not a copy)
+  const copy = Uint8Array.prototype.slice.call(bytes, start, start + need);
   const data = dtype === 'float32' ? new Float32Array(copy.buffer) : dtype === 'float64' ? new Float64Array(copy.buffer) : dtype === 'int32' ? new Int32Array(copy.buffer) : copy;
   return { dtype, shape, data };
 }

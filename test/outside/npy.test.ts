@@ -12,6 +12,9 @@ import { pythonJson } from '../helpers/python.js';
 import { fixtureCloud } from '../helpers/export-cloud.js';
 import { writeGridExports } from '../../src/export/grid-exports.js';
 import type { IcManifest } from '../../src/export/ic-manifest.js';
+import { readNpy } from '../../src/export/npy.js';
+import { execFileSync } from 'node:child_process';
+import { PYTHON } from '../helpers/python.js';
 import { PC, M_SUN } from '../../src/physics/constants.js';
 
 const META = { toolVersion: '0.1.0', seed: 11, configText: 'seed: 11\n', configSha256: '0'.repeat(64), name: 'npy-test' };
@@ -89,5 +92,18 @@ describe('numpy reads the .npy and .raw grids', () => {
     }
     expect(Math.abs((r.mass_file_units * code.mass) / cloud.summary.massOnGrid - 1)).toBeLessThan(1e-9);
     for (const name of Object.keys(m.files)) expect(r[name]!.sha_ok, name).toBe(true);
+  });
+
+  it('our reader reads what numpy.save writes (float32 and float64, C order)', () => {
+    const f32 = path.join(dir, 'np32.npy');
+    const f64 = path.join(dir, 'np64.npy');
+    execFileSync(PYTHON, ['-c', `import numpy as np; np.save('${f32}', np.arange(24, dtype='<f4').reshape(2, 3, 4) * 0.5); np.save('${f64}', np.linspace(-1, 1, 7))`]);
+    const a = readNpy(f32);
+    expect(a.dtype).toBe('float32');
+    expect(a.shape).toEqual([2, 3, 4]);
+    expect(Array.from(a.data)).toEqual(Array.from({ length: 24 }, (_, i) => i * 0.5));
+    const b = readNpy(f64);
+    expect(b.shape).toEqual([7]);
+    expect(b.data[1]).toBeCloseTo(-1 + 2 / 6, 15);
   });
 });
