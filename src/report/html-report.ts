@@ -25,12 +25,13 @@ h1{font-size:1.5em;margin:.4em 0 .1em}h2{font-size:1.15em;margin:1.6em 0 .5em;bo
 .verdict .status{font-weight:bold;text-transform:capitalize}
 .cautions{background:#fff8e6;border:1px solid #e8d49a;padding:.5em 1em}
 .warnings{background:#fdeeee;border:1px solid #e6b3b3;padding:.5em 1em}
-.keys{display:flex;flex-wrap:wrap;gap:16px}
+.keys{display:flex;flex-wrap:wrap;gap:16px;align-items:flex-start}
 table.numbers{border-collapse:collapse;background:#fff;min-width:320px}
 table.numbers caption{text-align:left;font-weight:bold;padding:4px 0}
 table.numbers th,table.numbers td{padding:3px 8px;border-bottom:1px solid #eee;text-align:left;font-weight:normal}
 table.numbers td.num{text-align:right;font-variant-numeric:tabular-nums}
 .plots{display:flex;flex-wrap:wrap;gap:16px}
+figure{margin:0}
 svg.plot{background:#fff;border:1px solid #ddd;font-size:11px;font-family:inherit;max-width:100%;height:auto}
 pre.config{background:#fff;border:1px solid #ddd;padding:.8em;overflow:auto;font-size:.85em}
 `;
@@ -60,8 +61,10 @@ function list(items: readonly string[]): string {
 /** The whole report page for a run: summary.json, plots.json and the config text it was made from. */
 export function renderReport(summary: Summary, plots: PlotData, configText: string): string {
   const verdict = verdictOf(summary);
-  const cautions = [...STANDARD_CAUTIONS];
-  for (const c of summary.cautions) if (!cautions.includes(c)) cautions.push(c);
+  const cautions = [...summary.cautions];
+  // the two cautions every report must carry, unless the summary already says them
+  if (!cautions.some((c) => /not a simulation/i.test(c))) cautions.unshift(STANDARD_CAUTIONS[0]);
+  if (!cautions.some((c) => /convergence/i.test(c))) cautions.push(STANDARD_CAUTIONS[1]);
   const meta = [
     `fragplan ${summary.tool_version}`,
     summary.seed === null ? 'no seed' : `seed ${summary.seed}`,

@@ -50,8 +50,20 @@ const RESOLUTION: Row[] = [
   ['unresolved_mass_fraction', 'Mass fraction under-resolved', ''],
   ['max_resolved_density_gcc', 'Densest gas resolved', 'g cm^-3'],
   ['levels_needed', 'Refinement levels needed', ''],
+  ['particles_needed', 'Particles needed', ''],
+  ['particle_count', 'Particles planned', ''],
+  ['resolvable_mass_msun', 'Smallest resolvable mass', 'Msun'],
   ['sink_threshold_gcc', 'Sink density threshold', 'g cm^-3'],
   ['sink_radius_pc', 'Sink accretion radius', 'pc'],
+];
+const COST: Row[] = [
+  ['core_hours', 'Cost', 'core-hours'],
+  ['memory_gib', 'Memory at start', 'GiB'],
+  ['run_time_myr', 'Simulated time', 'Myr'],
+  ['time_step_yr', 'Base time step', 'yr'],
+  ['finest_time_step_yr', 'Finest time step', 'yr'],
+  ['steps', 'Time steps', ''],
+  ['total_updates', 'Cell or particle updates', ''],
 ];
 const HIERARCHY: Row[] = [
   ['nodes', 'Tree nodes', ''],
@@ -79,24 +91,21 @@ export function keyNumbers(summary: Summary): KeyNumber[] {
   const out = rows(cloud, 'cloud', 'Cloud', CLOUD);
   const jm = out.find((r) => r.key === 'cloud.jeans_mass_msun');
   if (jm && typeof cloud?.jeans_mass_definition === 'string' && cloud.jeans_mass_definition) {
-    jm.label = `Jeans mass (${cloud.jeans_mass_definition})`;
+    // "sphere: diameter lambda_J ..." -> "sphere"
+    jm.label = `Jeans mass (${cloud.jeans_mass_definition.split(':')[0].trim()})`;
   }
   out.push(...rows(summary.grid as Record<string, unknown>, 'grid', 'Grid', GRID));
   out.push(...rows(summary.resolution, 'resolution', 'Resolution', RESOLUTION));
   out.push(...rows(summary.hierarchy, 'hierarchy', 'Hierarchy', HIERARCHY));
-  if (summary.cost) {
-    const cost: Row[] = Object.keys(summary.cost)
-      .filter((k) => typeof summary.cost?.[k] === 'number')
-      .map((k) => [k, costLabel(k), unitFromKey(k)] as const);
-    out.push(...rows(summary.cost, 'cost', 'Cost', cost));
-  }
+  out.push(...rows(summary.cost, 'cost', 'Cost', COST));
   return out;
 }
 
-/** The resolution verdict of a summary ({status, reason} or a plain string), or null. */
+/** The resolution verdict of a summary (verdict + verdict_reason strings, or a {status, reason} object), or null. */
 export function verdictOf(summary: Summary): VerdictText | null {
   const v = summary.resolution?.verdict;
-  if (typeof v === 'string') return { status: v, reason: '' };
+  const why = summary.resolution?.verdict_reason;
+  if (typeof v === 'string') return { status: v, reason: typeof why === 'string' ? why : '' };
   if (v && typeof v === 'object') {
     const o = v as Record<string, unknown>;
     const status = typeof o.status === 'string' ? o.status : '';
@@ -104,37 +113,4 @@ export function verdictOf(summary: Summary): VerdictText | null {
     if (status || reason) return { status, reason };
   }
   return null;
-}
-
-const UNIT_SUFFIXES: Array<[string, string]> = [
-  ['_core_hours', 'core-hours'],
-  ['_hours', 'h'],
-  ['_gib', 'GiB'],
-  ['_gb', 'GB'],
-  ['_bytes', 'bytes'],
-  ['_myr', 'Myr'],
-  ['_yr', 'yr'],
-  ['_s', 's'],
-  ['_pc', 'pc'],
-  ['_msun', 'Msun'],
-  ['_gcc', 'g cm^-3'],
-];
-
-/** The first unit suffix a key carries: the key is the unit's own name (e.g. "core_hours") or ends in "_<unit>". */
-function splitUnit(key: string): { base: string; unit: string } {
-  for (const [suffix, unit] of UNIT_SUFFIXES) {
-    if (key === suffix.slice(1)) return { base: key, unit };
-    if (key.endsWith(suffix)) return { base: key.slice(0, -suffix.length), unit };
-  }
-  return { base: key, unit: '' };
-}
-
-/** The unit named by a snake_case key's suffix (e.g. "wall_time_hours" -> "h", "core_hours" -> "core-hours"), or "". */
-export function unitFromKey(key: string): string {
-  return splitUnit(key).unit;
-}
-
-function costLabel(key: string): string {
-  const words = splitUnit(key).base.replace(/_/g, ' ').trim();
-  return words.charAt(0).toUpperCase() + words.slice(1);
 }

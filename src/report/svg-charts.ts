@@ -14,6 +14,11 @@ export function gaussianPdf(x: number, mean: number, sigma: number): number {
   return Math.exp(-0.5 * z * z) / (sigma * Math.sqrt(2 * Math.PI));
 }
 
+/** dN/dlog10 M (per dex) of a power law dN/dM = C M^-slope holding nTail objects above xmin (slope > 1): ln10 * nTail (slope-1) xmin^(slope-1) M^(1-slope). */
+export function powerLawPerDex(mass: number, slope: number, xmin: number, nTail: number): number {
+  return Math.LN10 * nTail * (slope - 1) * xmin ** (slope - 1) * mass ** (1 - slope);
+}
+
 /** Density PDF of s = ln(rho/rho0), log y, with the volume-weighted lognormal expectation (mean -sigma^2/2, see src/physics/turbulence.ts). */
 export function densityPdfSvg(p: DensityPdfPlot | null): string {
   const title = 'Density PDF (volume-weighted)';
@@ -69,11 +74,11 @@ export function velocitySpectrumSvg(p: VelocitySpectrumPlot | null): string {
       lk.push(kk);
       lp.push(pw[a] * (kk / k[a]) ** -p.input_index);
     }
-    slope = line(f, lk, lp, COLOURS.models[0], '6 3');
+    slope = line(f, lk, lp, COLOURS.models[0], '6 3', 2);
     entries.push({ label: `input slope k^-${formatNumber(p.input_index)}`, colour: COLOURS.models[0] });
   }
   const body =
-    axes(f, 'k (cycles per box)', 'P(k) (arbitrary units)', title) + slope + line(f, k, pw, COLOURS.data, '', 2) + legend(f, entries);
+    axes(f, 'k (cycles per box)', 'P(k) (arbitrary units)', title) + line(f, k, pw, COLOURS.data, '', 2) + slope + legend(f, entries);
   return svgElement(f, 'plot-velocity-spectrum', title, body);
 }
 
@@ -135,8 +140,7 @@ export function massSpectrumSvg(p: MassSpectrumPlot): string {
     for (let i = 0; i <= 30; i++) {
       const m = xmin * (hi / xmin) ** (i / 30);
       mm.push(m);
-      // dN/dM = n (slope-1) xmin^(slope-1) M^-slope above xmin, times ln10 M for per dex
-      yy.push(Math.LN10 * n * (slope - 1) * xmin ** (slope - 1) * m ** (1 - slope));
+      yy.push(powerLawPerDex(m, slope, xmin, n));
     }
     parts.push(line(f, mm, yy, COLOURS.limit, '', 2));
     entries.push({ label: `fit dN/dM ~ M^-${formatNumber(slope)} +/- ${formatNumber(p.fit.slope_error)}`, colour: COLOURS.limit });

@@ -81,7 +81,7 @@ export function dendrogramSvg(all: readonly TreePlotNode[]): string {
   const L = layoutDendrogram(all);
   const dens = extent([...L.base.values(), ...L.top.values()], true) ?? [1e-20, 1e-18];
   const yr = padLog(dens);
-  const width = Math.max(560, Math.min(1100, 40 + 8 * L.leaves));
+  const width = Math.max(540, Math.min(1100, 40 + 8 * L.leaves));
   const f = makeFrame({ label: '', log: false, min: -0.6, max: Math.max(0.6, L.leaves - 0.4) }, { label: '', log: true, min: yr[0], max: yr[1] }, width, 380);
   const out: string[] = [axes(f, L.shown < L.total ? `leaves in tree order (the ${L.shown} most massive of ${L.total} nodes)` : 'leaves in tree order', 'density (g cm^-3)', title, false)];
   for (const n of L.nodes) {

@@ -41,7 +41,7 @@ export function px(v: number): string {
 }
 
 /** Builds the frame (scales and rectangle) for a plot of the given size in pixels. */
-export function makeFrame(x: AxisSpec, y: AxisSpec, width = 560, height = 340): Frame {
+export function makeFrame(x: AxisSpec, y: AxisSpec, width = 540, height = 340): Frame {
   const left = 70;
   const right = width - 16;
   const top = 30;
@@ -149,7 +149,7 @@ export function svgElement(f: Frame, id: string, title: string, content: string)
 }
 
 /** An SVG placeholder saying why a plot is missing (still one <svg> per plot). */
-export function emptyPlot(id: string, title: string, why: string, width = 560, height = 120): string {
+export function emptyPlot(id: string, title: string, why: string, width = 540, height = 120): string {
   return (
     `<svg xmlns="http://www.w3.org/2000/svg" id="${escapeHtml(id)}" class="plot" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" role="img" aria-label="${escapeHtml(title)}">` +
     `<title>${escapeHtml(title)}</title><text x="16" y="24" font-weight="bold">${escapeHtml(title)}</text>` +

@@ -46,13 +46,14 @@ export function fixtureSummary(): Summary {
     cloud: {
       mass_msun: 60.25, radius_pc: 0.8, temperature_k: 10, mu: 2.33, mean_density_gcc: 1.9e-20,
       sound_speed_kms: 0.188, mach: 5.5, virial_parameter: 1.37, alpha_thermal: 0.0912, beta_rotation: 0,
-      jeans_mass_msun: 3.14159, jeans_length_pc: 0.2468, free_fall_time_myr: 0.4823, jeans_mass_definition: 'sphere',
+      jeans_mass_msun: 3.14159, jeans_length_pc: 0.2468, free_fall_time_myr: 0.4823, jeans_mass_definition: 'sphere: diameter lambda_J',
     },
     grid: { cells_per_side: 32, box_size_pc: FIXTURE_BOX_PC, cell_size_pc: FIXTURE_BOX_PC / 32, mass_on_grid_msun: 61.07 },
     resolution: {
       jeans_cells_min: 2.714, unresolved_mass_fraction: 0.0316, max_resolved_density_gcc: 1.234e-19,
       levels_needed: 3, sink_threshold_gcc: 5.55e-18, sink_radius_pc: 0.15625,
-      verdict: { status: 'not resolved', reason: 'the densest cell has 2.71 cells per Jeans length, below the 4 of Truelove et al. 1997' },
+      verdict: 'not resolved',
+      verdict_reason: 'the densest cell has 2.71 cells per Jeans length, below the 4 of Truelove et al. 1997',
     },
     hierarchy: {
       nodes: 7, unstable_nodes: 4, fragment_candidates: 2, expected_fragments: 5,

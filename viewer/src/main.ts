@@ -63,7 +63,8 @@ function summaryBox(data: PreviewData): void {
     const p = document.createElement('p');
     p.className = 'verdict';
     p.textContent = typeof verdict === 'string' ? `Resolution: ${verdict}` : `Resolution: ${verdict.status ?? ''}`;
-    if (typeof verdict !== 'string' && verdict.reason) p.title = verdict.reason;
+    const reason = typeof verdict === 'string' ? s?.resolution?.verdict_reason : verdict.reason;
+    if (typeof reason === 'string' && reason) p.title = reason;
     host.appendChild(p);
   }
   const dl = document.createElement('dl');
@@ -75,7 +76,7 @@ function summaryBox(data: PreviewData): void {
   const h2 = s?.hierarchy as Record<string, unknown> | undefined;
   if (typeof h2?.fragment_candidates === 'number') rows.push(['Fragment candidates', fmt(h2.fragment_candidates)]);
   if (typeof h2?.expected_fragments === 'number') rows.push(['Expected fragments', fmt(h2.expected_fragments)]);
-  if (typeof s?.cloud?.jeans_mass_msun === 'number') rows.push([`Jeans mass (${s.cloud.jeans_mass_definition})`, `${fmt(s.cloud.jeans_mass_msun)} Msun`]);
+  if (typeof s?.cloud?.jeans_mass_msun === 'number') rows.push([`Jeans mass (${String(s.cloud.jeans_mass_definition).split(':')[0]})`, `${fmt(s.cloud.jeans_mass_msun)} Msun`]);
   for (const [k, v] of rows) {
     const dt = document.createElement('dt');
     dt.textContent = k;
