@@ -4,12 +4,12 @@
  * Never downloads a browser: /usr/bin/chromium must exist (.ci/run installs it).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { startViewServer, viewerDir, type ViewServer } from '../src/pipeline/view.js';
-import { BLOBS, fixtureFields, fixtureSummary, fixtureTree, FIXTURE_CELLS, writeFixtureRun } from './helpers/make-preview.js';
+import { BLOBS, fixtureFields, fixtureSummary, fixtureTree, FIXTURE_CELLS, makePreviewZip, writeFixtureRun } from './helpers/make-preview.js';
 
 const CHROMIUM = '/usr/bin/chromium';
 const ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
@@ -126,6 +126,19 @@ describe('viewer page in headless Chromium', () => {
     await expect(page.locator('#slice-label').textContent()).resolves.toContain(`${above} cells above J = 0.25`);
     await page.locator('#slice-index').fill('0');
     await expect(page.locator('#slice-label').textContent()).resolves.toContain('0 cells above');
+  });
+
+  it('opens a preview.zip chosen with the file picker (no server fetch needed)', async () => {
+    const other = path.join(dir, 'other-run.zip');
+    writeFileSync(other, await makePreviewZip({ fragmentsCsv: 'id,mass_msun\n0,12.5\n1,4.75\n' }));
+    await page.locator('#file-input').setInputFiles(other);
+    await expect.poll(() => page.locator('#status').textContent()).toContain('other-run.zip: 32^3 preview');
+    await expect(page.locator('#tree-count').textContent()).resolves.toBe(`Tree: ${fixtureTree().length} nodes`);
+    // a broken file gets a message, not a crash
+    const broken = path.join(dir, 'broken.zip');
+    writeFileSync(broken, 'not a zip');
+    await page.locator('#file-input').setInputFiles(broken);
+    await expect.poll(() => page.locator('#status').textContent()).toContain('Could not read broken.zip: this file is not a zip archive');
   });
 
   it('shows the mass spectrum with the model curve, and made no request off its own server', async () => {
