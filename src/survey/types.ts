@@ -32,8 +32,12 @@ export interface SurveyOptions {
   readonly minMass: number;
   /** Only cells denser than this are surveyed, g/cm^3. */
   readonly floorDensity: number;
+  /** How the floor was chosen, in words (NaN floorDensity: the cube's mean density is used). */
+  readonly floorRule?: string;
   /** Self-gravity coarse-graining bound, cells per side. */
   readonly gravityCells: number;
+  /** Relative tolerance of the adaptive self-gravity sum (default 0.01). */
+  readonly gravityTolerance?: number;
   readonly coreToStarEfficiency: number;
   /** Cloud Mach number and velocity spectral index, for the Padoan & Nordlund model curve (null if unknown). */
   readonly mach: number | null;
@@ -76,6 +80,20 @@ export interface SurveyNode {
   /** Expected fragments this candidate forms (0 for non-candidates). */
   expectedFragments: number;
   state: NodeState;
+  /** Radius of the sphere with the node's volume, (3V/(4 pi))^(1/3), cm. */
+  effectiveRadius?: number;
+  /** Mass-weighted temperature, K. */
+  temperature?: number;
+  /** (2 (E_kin + E_th) + E_mag) / |W|: below 1 the node is gravity-dominated. */
+  virialRatio?: number;
+  /** Fine cells per coarse cell side used for the self-gravity sum (1 = none). */
+  gravityCoarsening?: number;
+  /** Coarse cells per side of the self-gravity grid. */
+  gravityCellsPerSide?: number;
+  /** Estimated relative error of the gravitational energy from coarse-graining (0: none). */
+  gravityError?: number;
+  /** Depth in the tree: 0 for roots. */
+  depth?: number;
 }
 
 /** Power-law fit of a mass spectrum dN/dM ~ M^-slope (Clauset, Shalizi & Newman 2009). */
@@ -119,4 +137,17 @@ export interface SurveyResult {
   labels: Int32Array;
   /** Seconds spent per stage, e.g. { tree: 0.4, gravity: 1.2 }. */
   timings: Record<string, number>;
+  /** Density floor actually used, g/cm^3, and how it was chosen. */
+  floorDensity?: number;
+  floorRule?: string;
+  /** Significance limits and connectivity used (cgs). */
+  limits?: { minCells: number; minContrast: number; minMass: number; connectivity: 6 | 26 };
+  /** Thermal Jeans mass at the mean density of the surveyed cells, g (the mass unit of the Padoan & Nordlund curve). */
+  referenceJeansMass?: number;
+  /** How self-gravity was computed, in words, with its error bound. */
+  gravityMethod?: string;
+  /** Notes and cautions for the user. */
+  notes?: string[];
+  /** The options the survey ran with. */
+  options?: SurveyOptions;
 }

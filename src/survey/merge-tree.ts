@@ -1,0 +1,269 @@
+/**
+ * Density-threshold merge tree of a cube (the dendrogram method of Rosolowsky et al. 2008,
+ * with our own names and significance rules).
+ *
+ * Grid: shape (nx, ny, nz), C order, flat index (i*ny + j)*nz + k, i along x, cell-centred;
+ * density in g/cm^3. The box edges are not periodic: regions never connect across them.
+ *
+ * Method. Cells denser than the floor are sorted by density (LSD radix sort on the float
+ * bits, two 16-bit passes, O(N)) and added from the densest down. A cell joins the connected
+ * regions of its already-added neighbours (connectivity 6: faces; 26: faces, edges and
+ * corners), tracked by union-find with path halving and union by size. Each region has a
+ * "top node". When a cell touches several regions, each region is judged at the current
+ * level d (the cell's density):
+ *   significant = its top node already has children, or
+ *                 cells >= minCells and mass >= minMass and peak >= (1 + minContrast) d.
+ * Two or more significant regions: a new node is made, their top nodes become its children
+ * (their merge density is d), the insignificant regions are absorbed into it. Fewer than two:
+ * everything is absorbed into the significant region, or into the one with the highest peak.
+ * At the end each remaining region is judged the same way at the floor density; a region
+ * failing the test is dropped (its cells get label -1). Significance only grows as the level
+ * falls, so a node once kept stays kept.
+ *
+ * Numbering: node ids 0..n-1 in creation order of the kept nodes, so a child's id is always
+ * below its parent's; parent -1 for roots. Labels: per cell, the deepest kept node holding
+ * it, -1 for cells at or below the floor or in dropped regions. Roots carry as merge density
+ * the lowest density among their cells.
+ */
+
+/** Significance limits of the tree (see the file header). */
+export interface TreeLimits {
+  readonly minCells: number;
+  readonly minContrast: number;
+  /** g */
+  readonly minMass: number;
+}
+
+/** The bare tree: topology, cell counts, peaks and merge levels; per-cell labels. */
+export interface MergeTree {
+  readonly count: number;
+  readonly parent: Int32Array;
+  readonly children: number[][];
+  readonly roots: number[];
+  /** Cells in the node including its descendants. */
+  readonly cells: Float64Array;
+  /** g/cm^3 */
+  readonly peak: Float64Array;
+  /** Density at which the node joins its parent (roots: their lowest cell density), g/cm^3. */
+  readonly mergeDensity: Float64Array;
+  readonly labels: Int32Array;
+}
+
+/** Neighbour offsets (di, dj, dk) for connectivity 6 or 26. */
+export function neighbourOffsets(connectivity: 6 | 26): Array<[number, number, number]> {
+  const out: Array<[number, number, number]> = [];
+  for (let a = -1; a <= 1; a++) for (let b = -1; b <= 1; b++) for (let c = -1; c <= 1; c++) {
+    const n = Math.abs(a) + Math.abs(b) + Math.abs(c);
+    if (n === 0 || (connectivity === 6 && n > 1)) continue;
+    out.push([a, b, c]);
+  }
+  return out;
+}
+
+/** Indices of cells with density > floor, sorted by ascending density (stable LSD radix sort on float bits, O(N)). */
+export function sortCellsAbove(density: Float32Array, floor: number): Int32Array {
+  const bits = new Uint32Array(density.buffer, density.byteOffset, density.length);
+  let m = 0;
+  for (let c = 0; c < density.length; c++) if (density[c]! > floor) m++;
+  let idx = new Int32Array(m);
+  let key = new Uint32Array(m);
+  for (let c = 0, p = 0; c < density.length; c++) if (density[c]! > floor) { idx[p] = c; key[p++] = bits[c]!; }
+  // positive IEEE floats order like their bit patterns as unsigned integers
+  let idx2 = new Int32Array(m);
+  let key2 = new Uint32Array(m);
+  const count = new Uint32Array(65536);
+  for (const shift of [0, 16]) {
+    count.fill(0);
+    for (let p = 0; p < m; p++) count[(key[p]! >>> shift) & 0xffff]!++;
+    let sum = 0;
+    for (let b = 0; b < 65536; b++) { const t = count[b]!; count[b] = sum; sum += t; }
+    for (let p = 0; p < m; p++) {
+      const b = (key[p]! >>> shift) & 0xffff;
+      const q = count[b]!++;
+      idx2[q] = idx[p]!;
+      key2[q] = key[p]!;
+    }
+    [idx, idx2] = [idx2, idx];
+    [key, key2] = [key2, key];
+  }
+  return idx;
+}
+
+class Growable {
+  data: Float64Array;
+  constructor(n = 1024) { this.data = new Float64Array(n); }
+  ensure(n: number): void {
+    if (n <= this.data.length) return;
+    const d = new Float64Array(Math.max(n, this.data.length * 2));
+    d.set(this.data);
+    this.data = d;
+  }
+}
+
+/** Builds the merge tree of `density` (g/cm^3) over cells denser than `floor`; cellVolume in cm^3 turns density into mass. */
+export function buildMergeTree(
+  density: Float32Array,
+  shape: { nx: number; ny: number; nz: number },
+  floor: number,
+  connectivity: 6 | 26,
+  limits: TreeLimits,
+  cellVolume: number,
+  onProgress?: (done: number, total: number) => void,
+): MergeTree {
+  const { nx, ny, nz } = shape;
+  const n = nx * ny * nz;
+  if (density.length !== n) throw new RangeError(`density has ${density.length} values, shape holds ${n}`);
+  const order = sortCellsAbove(density, floor);
+  const m = order.length;
+
+  const uf = new Int32Array(n).fill(-1); // -1: not added yet; else parent in union-find
+  const size = new Int32Array(n);
+  const compNode = new Int32Array(n);
+  const labels = new Int32Array(n).fill(-1);
+
+  // tentative nodes
+  const cellsG = new Growable(), massG = new Growable(), peakG = new Growable(), mergeG = new Growable(), lowG = new Growable();
+  let alias = new Int32Array(1024);
+  let parentT = new Int32Array(1024);
+  let hasKids = new Uint8Array(1024);
+  const kids: number[][] = [];
+  let count = 0;
+  const newNode = (): number => {
+    const id = count++;
+    for (const g of [cellsG, massG, peakG, mergeG, lowG]) g.ensure(count);
+    if (count > alias.length) {
+      const grow = <T extends Int32Array | Uint8Array>(a: T): T => { const b = new (a.constructor as new (k: number) => T)(a.length * 2); b.set(a); return b; };
+      alias = grow(alias); parentT = grow(parentT); hasKids = grow(hasKids);
+    }
+    alias[id] = id; parentT[id] = -1; hasKids[id] = 0; kids.push([]);
+    cellsG.data[id] = 0; massG.data[id] = 0; peakG.data[id] = 0; mergeG.data[id] = 0; lowG.data[id] = Infinity;
+    return id;
+  };
+  const find = (c: number): number => {
+    while (uf[c] !== c) { const p = uf[uf[c]!]!; uf[c] = p; c = p; }
+    return c;
+  };
+  const significant = (t: number, level: number): boolean =>
+    hasKids[t] === 1 || (cellsG.data[t]! >= limits.minCells && massG.data[t]! >= limits.minMass && peakG.data[t]! >= (1 + limits.minContrast) * level);
+  const absorb = (from: number, into: number): void => {
+    alias[from] = into;
+    cellsG.data[into]! += cellsG.data[from]!;
+    massG.data[into]! += massG.data[from]!;
+    if (peakG.data[from]! > peakG.data[into]!) peakG.data[into] = peakG.data[from]!;
+    if (lowG.data[from]! < lowG.data[into]!) lowG.data[into] = lowG.data[from]!;
+  };
+
+  const offs = neighbourOffsets(connectivity);
+  const roots = new Int32Array(offs.length);
+  const sig: number[] = [];
+  const report = Math.max(1, Math.floor(m / 100));
+  for (let p = m - 1; p >= 0; p--) {
+    const c = order[p]!;
+    const d = density[c]!;
+    const i = Math.floor(c / (ny * nz));
+    const j = Math.floor(c / nz) % ny;
+    const k = c % nz;
+    let nr = 0;
+    for (const [di, dj, dk] of offs) {
+      const a = i + di, b = j + dj, e = k + dk;
+      if (a < 0 || a >= nx || b < 0 || b >= ny || e < 0 || e >= nz) continue;
+      const q = (a * ny + b) * nz + e;
+      if (uf[q] === -1) continue;
+      const r = find(q);
+      let seen = false;
+      for (let s = 0; s < nr; s++) if (roots[s] === r) { seen = true; break; }
+      if (!seen) roots[nr++] = r;
+    }
+    let target: number;
+    if (nr === 0) {
+      target = newNode();
+    } else if (nr === 1) {
+      target = compNode[roots[0]!]!;
+    } else {
+      sig.length = 0;
+      for (let s = 0; s < nr; s++) { const t = compNode[roots[s]!]!; if (significant(t, d)) sig.push(t); }
+      if (sig.length >= 2) {
+        target = newNode();
+        hasKids[target] = 1;
+        for (let s = 0; s < nr; s++) {
+          const t = compNode[roots[s]!]!;
+          if (sig.includes(t)) {
+            parentT[t] = target;
+            mergeG.data[t] = d;
+            kids[target]!.push(t);
+            cellsG.data[target]! += cellsG.data[t]!;
+            massG.data[target]! += massG.data[t]!;
+            if (peakG.data[t]! > peakG.data[target]!) peakG.data[target] = peakG.data[t]!;
+          } else absorb(t, target);
+        }
+      } else {
+        if (sig.length === 1) target = sig[0]!;
+        else {
+          target = compNode[roots[0]!]!;
+          for (let s = 1; s < nr; s++) {
+            const t = compNode[roots[s]!]!;
+            if (peakG.data[t]! > peakG.data[target]! || (peakG.data[t] === peakG.data[target] && t < target)) target = t;
+          }
+        }
+        for (let s = 0; s < nr; s++) { const t = compNode[roots[s]!]!; if (t !== target) absorb(t, target); }
+      }
+    }
+    // add the cell to target and union the regions
+    cellsG.data[target]! += 1;
+    massG.data[target]! += d * cellVolume;
+    if (d > peakG.data[target]!) peakG.data[target] = d;
+    lowG.data[target] = d;
+    labels[c] = target;
+    let root = c;
+    uf[c] = c;
+    size[c] = 1;
+    for (let s = 0; s < nr; s++) {
+      const r = roots[s]!;
+      const [big, small] = size[r]! >= size[root]! ? [r, root] : [root, r];
+      uf[small] = big;
+      size[big]! += size[small]!;
+      root = big;
+    }
+    compNode[root] = target;
+    if (onProgress && (m - p) % report === 0) onProgress(m - p, m);
+  }
+
+  // judge the remaining regions at the floor; drop those that fail
+  const dropped = new Uint8Array(count);
+  for (let p = 0; p < m; p++) {
+    const c = order[p]!;
+    if (uf[c] !== c) continue;
+    const t = compNode[c]!;
+    mergeG.data[t] = lowG.data[t]!;
+    if (!significant(t, floor)) dropped[t] = 1;
+  }
+  // resolve aliases (absorbed -> absorber), renumber kept nodes in creation order
+  const resolve = (t: number): number => {
+    let r = t;
+    while (alias[r] !== r) r = alias[r]!;
+    while (alias[t] !== r) { const nx2 = alias[t]!; alias[t] = r; t = nx2; }
+    return r;
+  };
+  const newId = new Int32Array(count).fill(-1);
+  let kept = 0;
+  for (let t = 0; t < count; t++) if (alias[t] === t && !dropped[t]) newId[t] = kept++;
+  for (let p = 0; p < m; p++) {
+    const c = order[p]!;
+    labels[c] = newId[resolve(labels[c]!)]!;
+  }
+  const parent = new Int32Array(kept);
+  const cells = new Float64Array(kept), peak = new Float64Array(kept), mergeDensity = new Float64Array(kept);
+  const children: number[][] = [];
+  const rootList: number[] = [];
+  for (let t = 0; t < count; t++) {
+    const id = newId[t]!;
+    if (id < 0) continue;
+    parent[id] = parentT[t]! >= 0 ? newId[parentT[t]!]! : -1;
+    cells[id] = cellsG.data[t]!;
+    peak[id] = peakG.data[t]!;
+    mergeDensity[id] = mergeG.data[t]!;
+    children.push(kids[t]!.map((x) => newId[x]!));
+    if (parent[id] === -1) rootList.push(id);
+  }
+  return { count: kept, parent, children, roots: rootList, cells, peak, mergeDensity, labels };
+}

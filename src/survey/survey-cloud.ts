@@ -1,0 +1,129 @@
+/**
+ * The hierarchical fragmentation survey of one density cube: merge tree -> node sums ->
+ * self-gravity -> energies and Jeans test -> candidates -> mass spectrum.
+ *
+ * Grid: shape (nx, ny, nz), C order, flat index (i*ny + j)*nz + k, i along x, cell-centred,
+ * box [-L/2, L/2)^3 with cubic cells dx = L/nx; every quantity cgs.
+ * Results depend only on the input and options: the worker pool only spreads the per-node
+ * self-gravity sums, each computed by the same code, so a run with and without workers gives
+ * the same numbers.
+ */
+import type { SurveyInput, SurveyOptions, SurveyResult } from './types.js';
+import type { WorkerPool } from '../grid/pool.js';
+import { cellCount, cellSize, cellVolume } from '../grid/grid3.js';
+import { silentProgress, type ProgressSink } from '../progress.js';
+import { buildMergeTree } from './merge-tree.js';
+import { nodeMoments, nodeCellLists, CH, NODE_CHANNELS } from './node-moments.js';
+import { nodeGravity, type NodeGravity } from './node-gravity.js';
+import { nodeVerdicts, EXPECTED_RULE } from './node-verdicts.js';
+import { massSpectrum } from './mass-spectrum.js';
+import { soundSpeed } from '../physics/sound-speed.js';
+import { jeansMass } from '../physics/jeans.js';
+
+/** Bytes the survey allocates per grid cell (union-find, sizes, region nodes, labels, sort keys, cell lists), excluding the input fields. */
+export const SURVEY_BYTES_PER_CELL = 40;
+
+/** Estimated peak memory of a survey of n^3 cells beyond its input fields, bytes. */
+export function estimateSurveyBytes(n: number): number {
+  return SURVEY_BYTES_PER_CELL * n ** 3 + 64 * 2 ** 20;
+}
+
+/** How the self-gravity is computed, for reports. */
+export function gravityMethodText(gravityCells: number, tolerance = 0.01): string {
+  return `self-gravity of each node from its own cells (Hockney & Eastwood 1981 isolated-boundary FFT convolution, or direct pair sum for small nodes) on the node's bounding box, coarse-grained to at most ${gravityCells} cells per side and refined from 16 per side until the estimated coarse-graining error is below ${tolerance * 100} % (leaves), parents as their children plus coarse interaction terms; each node reports its error estimate`;
+}
+
+function now(): number {
+  return performance.now() / 1000;
+}
+
+/** Runs the survey of a density cube (g/cm^3) with optional velocity (cm/s), field (G) and temperature (K); see types.ts. */
+export async function surveyCloud(input: SurveyInput, options: SurveyOptions, progress: ProgressSink = silentProgress, pool: WorkerPool | null = null): Promise<SurveyResult> {
+  const g = input.grid;
+  const n = cellCount(g);
+  if (input.density.length !== n) throw new RangeError(`density has ${input.density.length} values, grid ${g.nx}x${g.ny}x${g.nz} needs ${n}`);
+  for (const f of [...(input.velocity ?? []), ...(input.magnetic ?? [])]) if (f.length !== n) throw new RangeError('velocity/magnetic fields must match the density shape');
+  if (typeof input.temperature !== 'number' && input.temperature.length !== n) throw new RangeError('temperature field must match the density shape');
+  const timings: Record<string, number> = {};
+  const notes: string[] = [];
+  const vol = cellVolume(g);
+  const dx = cellSize(g);
+
+  // density floor
+  let floor = options.floorDensity;
+  let floorRule = options.floorRule ?? 'given';
+  if (!(Number.isFinite(floor) && floor >= 0)) {
+    let s = 0;
+    for (let c = 0; c < n; c++) s += input.density[c]!;
+    floor = s / n;
+    floorRule = 'mean density of the cube (no floor or ambient density given)';
+  }
+
+  let t = now();
+  const st = progress.stage('survey: merge tree', 100);
+  const tree = buildMergeTree(input.density, g, floor, options.connectivity,
+    { minCells: options.minCells, minContrast: options.minContrast, minMass: options.minMass }, vol,
+    (done, total) => st.update(Math.floor((100 * done) / total)));
+  st.stop();
+  timings.tree = now() - t;
+
+  t = now();
+  const sums = nodeMoments(input, tree.labels, tree.parent);
+  timings.moments = now() - t;
+
+  t = now();
+  const tolerance = options.gravityTolerance ?? 0.01;
+  let gravity: NodeGravity = { energy: new Float64Array(0), factor: new Int32Array(0), cellsPerSide: new Int32Array(0), relativeError: new Float64Array(0) };
+  if (tree.count > 0) {
+    const lists = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots);
+    const sg = progress.stage('survey: self-gravity', tree.count);
+    gravity = await nodeGravity(tree, lists, input.density, g, dx, options.gravityCells, tolerance, pool, (d) => sg.update(d));
+    sg.stop();
+  }
+  timings.gravity = now() - t;
+
+  t = now();
+  const nodes = nodeVerdicts(tree, sums, gravity, vol, input.mu, options);
+  const candidates = nodes.filter((x) => x.candidate).map((x) => x.id);
+  timings.verdicts = now() - t;
+
+  // reference Jeans mass: thermal, at the mean density and mass-weighted temperature of the surveyed gas
+  t = now();
+  let m = 0, v = 0, mt = 0;
+  for (const r of tree.roots) { const b = r * NODE_CHANNELS; m += sums[b + CH.mass]!; mt += sums[b + CH.mT]!; v += tree.cells[r]! * vol; }
+  if (m === 0) {
+    for (let c = 0; c < n; c++) m += input.density[c]! * vol;
+    v = n * vol;
+    const T = input.temperature;
+    mt = m * (typeof T === 'number' ? T : T.reduce((a, b) => a + b, 0) / n);
+  }
+  const referenceJeansMass = jeansMass(soundSpeed(mt / m, input.mu), m / v, options.jeansConvention);
+  const spectrum = massSpectrum(candidates.map((id) => nodes[id]!.mass), {
+    referenceJeansMass, mach: options.mach, velocitySpectrumIndex: options.velocitySpectrumIndex, coreToStarEfficiency: options.coreToStarEfficiency,
+  });
+  timings.spectrum = now() - t;
+
+  if (tree.count === 0) notes.push(`no connected region above the density floor ${floor.toExponential(3)} g/cm^3 passed the significance limits`);
+  if (candidates.length > 0 && !spectrum.fit) notes.push(`fewer than 10 fragment candidates: no power-law slope fitted`);
+  notes.push('fragment counts and masses are a statistical preview of the initial conditions, not a simulation: check convergence in the real run');
+
+  return {
+    nodes,
+    roots: tree.roots.slice(),
+    candidates,
+    unstableNodes: nodes.reduce((a, x) => a + (x.unstable ? 1 : 0), 0),
+    expectedFragments: nodes.reduce((a, x) => a + x.expectedFragments, 0),
+    expectedFragmentsRule: EXPECTED_RULE,
+    spectrum,
+    jeansConvention: options.jeansConvention,
+    labels: tree.labels,
+    timings,
+    floorDensity: floor,
+    floorRule,
+    limits: { minCells: options.minCells, minContrast: options.minContrast, minMass: options.minMass, connectivity: options.connectivity },
+    referenceJeansMass,
+    gravityMethod: gravityMethodText(options.gravityCells, tolerance),
+    notes,
+    options,
+  };
+}
