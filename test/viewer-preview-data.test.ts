@@ -9,7 +9,10 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { decodePreview, fillMask, labelCentroid, logDensityBytes, parseCsv, positionsFromCsv, positiveRange, subtreeIds } from '../viewer/src/preview-data.js';
 import { openPreview } from '../viewer/src/load-zip.js';
-import { readPreview } from '../src/export/preview.js';
+import { readFileSync } from 'node:fs';
+import { readPreview, writePreview } from '../src/export/preview.js';
+import type { Cloud } from '../src/generate/cloud.js';
+import { PC } from '../src/physics/constants.js';
 import { BLOBS, FIXTURE_BOX_PC, FIXTURE_CELLS, fixtureFields, fixtureTree, makePreviewZip } from './helpers/make-preview.js';
 
 describe('parseCsv', () => {
@@ -119,6 +122,31 @@ describe('decodePreview / openPreview', () => {
       const b = await readPreview(file);
       expect(b.manifest.cells).toBe(FIXTURE_CELLS);
       expect(b.particles?.length).toBe(1500);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('decodes a preview.zip written by the project\'s writer (writePreview), downsampled 2x', async () => {
+    const dir = mkdtempSync(path.join(tmpdir(), 'fragplan-writer-'));
+    try {
+      const full = fixtureFields(32); // stand-in full grid; the preview keeps 16^3
+      const cloud = { grid: { nx: 32, ny: 32, nz: 32, boxSize: FIXTURE_BOX_PC * PC.value }, density: full.density, seed: 7 } as unknown as Cloud;
+      const csv = 'id,mass_msun,x_pc,y_pc,z_pc,state\n0,12.5,-0.45,-0.1,0.05,bound-unstable\n';
+      const file = path.join(dir, 'preview.zip');
+      await writePreview(file, { cloud, jeansNumber: full.jeans, labels: full.labels, summary: {}, tree: { nodes: fixtureTree() }, fragmentsCsv: csv, plots: { schema: 'fragplan.plots/1', tree: fixtureTree() }, previewCells: 16, toolVersion: '0.1.0' }, false);
+      const data = await openPreview(readFileSync(file));
+      expect(data.n).toBe(16);
+      expect(data.manifest.source_cells).toBe(32);
+      expect(data.boxPc).toBeCloseTo(FIXTURE_BOX_PC, 12);
+      // block mean of the first 2x2x2 block, C order
+      let sum = 0;
+      for (const [i, j, k] of [[0, 0, 0], [0, 0, 1], [0, 1, 0], [0, 1, 1], [1, 0, 0], [1, 0, 1], [1, 1, 0], [1, 1, 1]]) sum += full.density[(i * 32 + j) * 32 + k];
+      expect(Math.abs(data.density[0] - sum / 8) / (sum / 8)).toBeLessThan(1e-6); // float32 storage
+      expect(data.candidates.find((c) => c.id === 0)?.position).toEqual([-0.45, -0.1, 0.05]);
+      // candidate 1 is not in the CSV: placed at its labelled cells' centre instead
+      const c1 = data.candidates.find((c) => c.id === 1)!;
+      for (let a = 0; a < 3; a++) expect(Math.abs(c1.position[a] - BLOBS[1].centre[a])).toBeLessThan(FIXTURE_BOX_PC / 16);
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
