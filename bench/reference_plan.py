@@ -4,16 +4,18 @@ way a practitioner would write it, for the side-by-side benchmark in bench/run.m
 
 What it does (cgs throughout):
   1. a uniform sphere of mass M and radius R in a cubic box of side 2 R padding;
-  2. turbulent velocity by FFT: complex Gaussian modes in the real-to-complex half spectrum with
-     per-mode power P(k) ~ k^-n for k_min <= |k| <= k_max (integer wavenumbers, cycles per box),
-     Helmholtz projection with solenoidal weight zeta,
-     v_hat <- zeta v_hat + (1 - 2 zeta) k (k . v_hat)/k^2 (Federrath et al. 2010),
-     zero net momentum, normalised to an rms 3D Mach number (mass-weighted over the cloud);
-  3. lognormal density: a Gaussian random field of s = ln(rho/rho0) with P(k) ~ k^-n_s, scaled to
-     sigma_s^2 = ln(1 + b^2 M^2) and mean -sigma_s^2/2 (Padoan, Nordlund & Jones 1997;
+  2. turbulent velocity by FFT: a complex Gaussian vector w per mode of the real-to-complex half
+     spectrum, v(k) = k^(-n/2) [zeta w + (1 - 2 zeta) khat (khat . w)] for k_min <= |k| <= k_max
+     (integer wavenumbers, cycles per box; Helmholtz projection with solenoidal weight zeta,
+     Federrath et al. 2010); the ambient gas at rest, zero net momentum of the cloud, normalised to
+     an rms 3D Mach number mass-weighted over the cloud;
+  3. lognormal density: a Gaussian random field s(k) = k^(-n_s/2) [sqrt(1 - c^2) z + c (-i khat . w)]
+     (c = coupling to the convergence of the flow), standardised over the cloud and scaled to
+     sigma_s^2 = ln(1 + b^2 M^2) with mean -sigma_s^2/2 (Padoan, Nordlund & Jones 1997;
      Federrath, Klessen & Schmidt 2008), renormalised so the cloud holds exactly M; an ambient
      medium rho0/contrast outside at T x contrast (pressure balance);
-  4. per-cell Jeans number J = dx/lambda_J, lambda_J = sqrt(pi c_s^2/(G rho)) (Truelove et al. 1997);
+  4. per-cell Jeans number J = dx/lambda_J, lambda_J = sqrt(pi c_s^2/(G rho)) (Truelove et al. 1997),
+     optionally with the barotropic T(rho) = T0 [1 + (rho/rho_c)^(gamma-1)];
   5. a threshold hierarchy: connected regions (scipy.ndimage.label, face or corner connectivity)
      above `levels` log-spaced density thresholds from 2 x ambient to the peak; per region mass,
      mean density, velocity dispersion about its own centre-of-mass motion and the Jeans mass
@@ -68,6 +70,12 @@ def parse_args(argv):
     p.add_argument('--density-index', type=float, default=11.0 / 3.0, help='ln(rho) P(k) ~ k^-n')
     p.add_argument('--density-k-min', type=float, default=1.0)
     p.add_argument('--density-k-max', type=float, default=None)
+    p.add_argument('--ambient-turbulence', action='store_true',
+                   help='keep the turbulent velocity in the ambient gas too (for spectral checks; fragplan keeps it at rest)')
+    p.add_argument('--coupling', type=float, default=0.0, help='ln-density correlation with the flow convergence')
+    p.add_argument('--barotropic', action='store_true', help='barotropic T(rho) in the Jeans number')
+    p.add_argument('--critical-density', type=float, default=1e-13, help='barotropic stiffening density, g/cm^3')
+    p.add_argument('--gamma', type=float, default=1.4, help='barotropic adiabatic index')
     p.add_argument('--contrast', type=float, default=100.0, help='cloud-edge / ambient density')
     p.add_argument('--padding', type=float, default=1.25, help='box side / cloud diameter')
     p.add_argument('--box-pc', type=float, default=None, help='box side, pc (overrides padding)')
@@ -99,52 +107,52 @@ def spectral_amplitude(n, index, k_min, k_max):
     return amp
 
 
-def gaussian_modes(rng, amp):
-    """Complex Gaussian modes times amp, complex64, mean power amp^2."""
-    z = np.empty(amp.shape, np.complex64)
-    z.real = rng.standard_normal(amp.shape, dtype=np.float32)
-    z.imag = rng.standard_normal(amp.shape, dtype=np.float32)
-    z *= amp * np.float32(np.sqrt(0.5))
+def unit_modes(rng, shape):
+    """Complex Gaussian modes, each part of unit variance, complex64."""
+    z = np.empty(shape, np.complex64)
+    z.real = rng.standard_normal(shape, dtype=np.float32)
+    z.imag = rng.standard_normal(shape, dtype=np.float32)
     return z
 
 
-def turbulent_velocity(n, rng, args, workers):
-    """Three velocity components (float32, arbitrary normalisation) after Helmholtz projection."""
-    k_max = args.k_max if args.k_max is not None else n / 2
-    amp = spectral_amplitude(n, args.velocity_index, args.k_min, k_max)
-    vh = [gaussian_modes(rng, amp) for _ in range(3)]
-    del amp
+def turbulent_fields(n, rng, args, workers):
+    """Raw velocity components and the unit-variance ln-density field s (float32 cubes).
+
+    w: a complex Gaussian vector per mode. Velocity: k^(-n/2) [zeta w + (1 - 2 zeta) khat (khat . w)]
+    (Helmholtz projection, Federrath et al. 2010). ln density: k^(-n_s/2) [sqrt(1 - c^2) z + c (-i khat . w)],
+    c = coupling: the phase of the convergence of the compressive part of the flow.
+    """
     kx, ky, kz = wavenumbers(n)
-    k2 = kx * kx + ky * ky + kz * kz
-    k2[0, 0, 0] = 1.0
-    zeta = args.solenoidal_weight
-    kdotv = kx * vh[0]
-    kdotv += ky * vh[1]
-    kdotv += kz * vh[2]
-    kdotv *= np.float32(1.0 - 2.0 * zeta) / k2
-    del k2
-    for c, kc in enumerate((kx, ky, kz)):
-        vh[c] *= np.float32(zeta)
-        vh[c] += kc * kdotv
-    del kdotv
-    v = []
-    for c in range(3):
-        v.append(scipy.fft.irfftn(vh[c], s=(n, n, n), workers=workers))
-        vh[c] = None
-    return v
-
-
-def log_density_field(n, rng, args, workers):
-    """Gaussian random field of unit variance and zero mean, float32."""
-    k_max = args.density_k_max if args.density_k_max is not None else n / 2
-    amp = spectral_amplitude(n, args.density_index, args.density_k_min, k_max)
-    sh = gaussian_modes(rng, amp)
+    k = np.sqrt(kx * kx + ky * ky + kz * kz)
+    k[0, 0, 0] = 1.0
+    w = [unit_modes(rng, k.shape) for _ in range(3)]
+    kdw = kx * w[0]
+    kdw += ky * w[1]
+    kdw += kz * w[2]
+    kdw /= k
+    c = args.coupling
+    amp = spectral_amplitude(n, args.density_index, args.density_k_min,
+                             args.density_k_max if args.density_k_max is not None else n / 2)
+    sh = unit_modes(rng, k.shape) * np.float32(np.sqrt(max(0.0, 1.0 - c * c))) if c < 1 else np.zeros(k.shape, np.complex64)
+    if c > 0:
+        sh += np.complex64(-1j * c) * kdw
+    sh *= amp
     del amp
-    g = scipy.fft.irfftn(sh, s=(n, n, n), workers=workers)
+    s = scipy.fft.irfftn(sh, s=(n, n, n), workers=workers)
     del sh
-    g -= np.float32(g.mean(dtype=np.float64))
-    g *= np.float32(1.0 / g.std(dtype=np.float64))
-    return g
+    amp = spectral_amplitude(n, args.velocity_index, args.k_min, args.k_max if args.k_max is not None else n / 2)
+    zeta = args.solenoidal_weight
+    kdw *= np.float32(1.0 - 2.0 * zeta)
+    v = []
+    for comp, kc in enumerate((kx, ky, kz)):
+        vh = w[comp]
+        vh *= np.float32(zeta)
+        vh += (kc / k) * kdw
+        vh *= amp
+        v.append(scipy.fft.irfftn(vh, s=(n, n, n), workers=workers))
+        w[comp] = None
+        del vh
+    return v, s
 
 
 def main(argv):
@@ -169,32 +177,42 @@ def main(argv):
     rng = np.random.default_rng(args.seed)
     workers = max(1, args.fft_workers)
 
-    # --- cloud: geometry, lognormal density ---------------------------------------------
+    # --- turbulent fields, lognormal density ---------------------------------------------
     t = time.perf_counter()
     x = (-box / 2 + (np.arange(n) + 0.5) * dx).astype(np.float64)
     r2 = (x[:, None, None] ** 2 + x[None, :, None] ** 2) + x[None, None, :] ** 2
     inside = r2 < radius * radius
     del r2
-    s = log_density_field(n, rng, args, workers)
-    s *= np.float32(sigma_s)
+    (vx, vy, vz), s = turbulent_fields(n, rng, args, workers)
+    timings['modes_fft'] = time.perf_counter() - t
+    t = time.perf_counter()
+    s_in = s[inside]
+    s_mean, s_std = s_in.mean(dtype=np.float64), s_in.std(dtype=np.float64)
+    del s_in
+    s -= np.float32(s_mean)
+    s *= np.float32(sigma_s / s_std)
     s -= np.float32(sigma_s * sigma_s / 2)
     rho = np.exp(s)
     del s
     rho *= np.float32(rho0)
     cloud_mass = rho[inside].sum(dtype=np.float64) * dv
     rho *= np.float32(mass / cloud_mass)
-    rho[~inside] = np.float32(rho_amb)
+    outside = ~inside
+    rho[outside] = np.float32(rho_amb)
     timings['density'] = time.perf_counter() - t
 
-    # --- turbulent velocity ------------------------------------------------------------
+    # --- velocity: ambient at rest, zero net momentum, Mach number over the cloud ----------
     t = time.perf_counter()
-    vx, vy, vz = turbulent_velocity(n, rng, args, workers)
-    m_tot = rho.sum(dtype=np.float64)
-    for v in (vx, vy, vz):
-        v -= np.float32(np.sum(rho * v, dtype=np.float64) / m_tot)  # zero net momentum
     rho_in = np.where(inside, rho, np.float32(0))
+    m_in = rho_in.sum(dtype=np.float64)
+    for v in (vx, vy, vz):
+        if not args.ambient_turbulence:
+            v[outside] = 0
+        v -= np.float32(np.sum(rho_in * v, dtype=np.float64) / m_in)
+        if not args.ambient_turbulence:
+            v[outside] = 0
     e2 = sum(np.sum(rho_in * v * v, dtype=np.float64) for v in (vx, vy, vz))
-    scale = args.mach * np.sqrt(cs2) / np.sqrt(e2 / rho_in.sum(dtype=np.float64))
+    scale = args.mach * np.sqrt(cs2) / np.sqrt(e2 / m_in)
     del rho_in
     for v in (vx, vy, vz):
         v *= np.float32(scale)
@@ -203,6 +221,8 @@ def main(argv):
     # --- per-cell Jeans number J = dx / lambda_J ---------------------------------------
     t = time.perf_counter()
     cs2_cell = np.where(inside, np.float32(cs2), np.float32(cs2_amb))
+    if args.barotropic:  # T = T0 [1 + (rho/rho_c)^(gamma - 1)] (Masunaga & Inutsuka 2000; common practice)
+        cs2_cell *= 1 + (rho / np.float32(args.critical_density)) ** np.float32(args.gamma - 1)
     jeans = np.float32(dx) * np.sqrt(np.float32(G / np.pi) * rho / cs2_cell)
     del cs2_cell
     j_max = float(jeans.max())

@@ -32,7 +32,6 @@ export function scriptArgsFromConfig(lib, config) {
   if (c.structure.kind !== 'lognormal') notes.push(`structure ${c.structure.kind}: the script uses lognormal structure anyway`);
   if (c.rotation) notes.push('rotation is not modelled by the script');
   if (c.magnetic) notes.push('the magnetic field is not modelled by the script');
-  if (c.eos.kind !== 'isothermal') notes.push('the script is isothermal');
   if (config.budget?.code === 'particles') notes.push('budget.code = particles does not change the script');
   const s = c.structure.kind === 'lognormal' ? c.structure : null;
   const values = {
@@ -49,6 +48,7 @@ export function scriptArgsFromConfig(lib, config) {
     density_index: s?.spectrum_index ?? 11 / 3,
     density_k_min: s?.k_min ?? 1,
     ...(s?.k_max !== undefined ? { density_k_max: s.k_max } : {}),
+    coupling: s?.coupling ?? 0,
     contrast: c.ambient.contrast,
     padding: config.grid.padding,
     ...(config.grid.box_size !== undefined ? { box_pc: config.grid.box_size / lib.PC.value } : {}),
@@ -57,5 +57,9 @@ export function scriptArgsFromConfig(lib, config) {
     connectivity: config.survey.connectivity,
   };
   const args = Object.entries(values).flatMap(([k, v]) => [`--${k.replace(/_/g, '-')}`, String(v)]);
+  if (c.eos.kind === 'barotropic') {
+    values.barotropic = { critical_density: c.eos.critical_density, gamma: c.eos.gamma };
+    args.push('--barotropic', '--critical-density', String(c.eos.critical_density), '--gamma', String(c.eos.gamma));
+  }
   return { args, seed: config.seed, notes, values };
 }
