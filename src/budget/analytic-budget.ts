@@ -55,6 +55,7 @@ export function analyticBudget(config: Config, cloud: BudgetCloud): BudgetResult
   let levelsNeeded: number | null = null;
   let levelsForTarget: number | null = null;
   let levelsForMinMass: number | null = null;
+  let levelsAtStart: number | null = null;
   let particlesNeeded: number | null = null;
   let particlesForTarget: number | null = null;
   let particlesForMinMass: number | null = null;
@@ -68,6 +69,7 @@ export function analyticBudget(config: Config, cloud: BudgetCloud): BudgetResult
     levelsForTarget = levelsToReach(plan, cloud, eos, targetDensity);
     levelsForMinMass = minMassDensity === null ? null : levelsToReach(plan, cloud, eos, minMassDensity);
     levelsNeeded = levelsToReach(plan, cloud, eos, requiredDensity);
+    levelsAtStart = levelsToReach(plan, cloud, eos, cloud.peakDensity);
     if (levelsNeeded === null) warnings.push(`no refinement depth up to 40 levels reaches ${fmt(requiredDensity)} g/cm^3 from ${plan.baseCells}^3 base cells`);
     else if (levelsNeeded > plan.levels) warnings.push(`${levelsNeeded} refinement level(s) needed to resolve ${fmt(requiredDensity)} g/cm^3; ${plan.levels} planned`);
     sinkRadiusCells = config.budget.sink_radius_cells;
@@ -127,6 +129,7 @@ export function analyticBudget(config: Config, cloud: BudgetCloud): BudgetResult
     requiredDensity,
     levelsForTarget,
     levelsForMinMass,
+    levelsAtStart,
     particlesForTarget,
     particlesForMinMass,
     temperatureAtLimit: eosTemperature(eos, cloud.temperature, limit),

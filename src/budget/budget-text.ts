@@ -44,7 +44,8 @@ export function budgetText(b: BudgetResult, g: GridResolution | null = null): st
   if (b.minimumJeansMass) L.push(`        the EOS sets a smallest Jeans mass of ${fmt(toUnit(b.minimumJeansMass.mass, 'Msun'))} Msun at ${fmt(b.minimumJeansMass.density)} g/cm^3.`);
   const needed = b.code === 'grid' ? b.levelsNeeded : b.particlesNeeded;
   const planned = b.code === 'grid' ? p.levels : p.particleCount;
-  L.push(`        smallest that meets both: ${needed === null ? 'none' : `${fmt(needed)} ${needUnit}`} (planned: ${fmt(planned)}).`);
+  if (b.code === 'grid' && b.levelsAtStart !== null && b.levelsAtStart > 0) L.push(`        the densest gas at t = 0 (${fmt(c.peakDensity)} g/cm^3) already needs ${b.levelsAtStart} level(s).`);
+  L.push(`        fewest that meet every requirement: ${needed === null ? 'none' : `${fmt(needed)} ${needUnit}`} (planned: ${fmt(planned)}).`);
   L.push(b.code === 'grid'
     ? `Sinks: accretion radius ${fmt(b.sinkRadiusCells)} finest cells = ${fmt(toUnit(b.sinkRadius, 'au'))} au, threshold ${fmt(b.sinkThreshold)} g/cm^3 (Federrath et al. 2010).`
     : `Sinks: threshold ${fmt(b.sinkThreshold)} g/cm^3 (${Number.isFinite(b.maxResolvedDensity) ? 'the resolution limit' : 'the density the run needs; resolution never ends'}), accretion radius ${fmt(b.sinkRadiusCells)} h = ${fmt(toUnit(b.sinkRadius, 'au'))} au.`);

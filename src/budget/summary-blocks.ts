@@ -68,6 +68,7 @@ export function resolutionSummary(b: BudgetResult, g: GridResolution | null): Re
     levels_needed: b.levelsNeeded,
     levels_for_target: b.levelsForTarget,
     levels_for_min_mass: b.levelsForMinMass,
+    levels_needed_at_start: b.levelsAtStart,
     particles_needed: b.particlesNeeded,
     particles_for_target: b.particlesForTarget,
     particles_for_min_mass: b.particlesForMinMass,

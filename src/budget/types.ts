@@ -58,6 +58,8 @@ export interface BudgetResult {
   /** Grid code: levels to reach the target density / to resolve min_fragment_mass (null if not asked or not reachable in 40 levels). */
   levelsForTarget: number | null;
   levelsForMinMass: number | null;
+  /** Grid code: levels the densest gas present at t = 0 already needs (null for particles). */
+  levelsAtStart: number | null;
   /** Particle code: particles to reach the target density / to resolve min_fragment_mass. */
   particlesForTarget: number | null;
   particlesForMinMass: number | null;
