@@ -18,7 +18,7 @@ await build({
   target: 'node20',
   packages: 'external',
   splitting: true,
-  chunkNames: 'chunks/[name]-[hash]',
+  chunkNames: 'chunk-[name]-[hash]',
   banner: { js: '' },
   logLevel: 'warning',
 });

@@ -61,6 +61,7 @@ export function createPool(size: number = defaultWorkerCount()): WorkerPool {
       const w = idle.pop()!;
       const item = queue.shift()!;
       pending.set(item.job.id, { resolve: item.resolve, reject: item.reject, worker: w });
+      w.ref(); // keep the process alive while a job runs; idle workers never hold it open
       w.postMessage(item.job);
     }
   };
@@ -71,6 +72,7 @@ export function createPool(size: number = defaultWorkerCount()): WorkerPool {
       const p = pending.get(r.id);
       if (!p) return;
       pending.delete(r.id);
+      w.unref();
       idle.push(w);
       if (r.ok) p.resolve(r.value);
       else p.reject(new Error(r.error ?? 'worker task failed'));
