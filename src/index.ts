@@ -39,3 +39,8 @@ export { terminalSummary } from './report/terminal-summary.js';
 export { formatNumber } from './report/format-number.js';
 export { startViewServer, resolveViewTarget } from './pipeline/view.js';
 export type { ViewServer } from './pipeline/view.js';
+export * from './physics/bonnor-ebert.js';
+export { generateCloud, estimateGenerateBytes, type GenerateOptions } from './generate/generate-cloud.js';
+export { cloudDimensions, type CloudDimensions } from './generate/dimensions.js';
+export * from './grid/spectrum.js';
+export * from './grid/histogram.js';
