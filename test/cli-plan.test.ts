@@ -127,3 +127,19 @@ describe('the memory guard', () => {
     expect(existsSync(path.join(tmp, 'huge'))).toBe(false);
   });
 });
+
+describe('budget and plan agree', () => {
+  it('on every resolution and cost number they both report', () => {
+    const p = JSON.parse(fragplan(['plan', 'presets/quiescent-core.yaml', '--cells', '32', '--out', path.join(tmp, 'agree'), '--json']).stdout);
+    const b = JSON.parse(fragplan(['budget', 'presets/quiescent-core.yaml', '--cells', '32', '--json']).stdout);
+    let compared = 0;
+    for (const block of ['resolution', 'cost'] as const) {
+      for (const [k, v] of Object.entries(b[block] as Record<string, unknown>)) {
+        if (!(k in p[block])) continue;
+        expect(p[block][k], `${block}.${k}`).toEqual(v);
+        compared++;
+      }
+    }
+    expect(compared).toBeGreaterThan(10);
+  });
+});

@@ -20,6 +20,7 @@ import { surveyOptionsFromConfig, hierarchySummary, treeJson, fragmentsCsv, runE
 import type { SurveyResult } from '../survey/types.js';
 import { analyticBudget, gridResolution, resolutionSummary, costSummary, eosFromConfig } from '../budget/index.js';
 import type { BudgetResult, GridResolution } from '../budget/types.js';
+import { budgetCloud } from './budget.js';
 import { writeGridExports } from '../export/grid-exports.js';
 import { writePreview } from '../export/preview.js';
 import { writeFileAtomic } from '../export/atomic-file.js';
@@ -54,17 +55,6 @@ export interface PlanResult {
   gridResolution: GridResolution;
 }
 
-/** Largest speed |v| on the grid, cm/s. */
-function maxSpeed(cloud: Cloud): number {
-  const [vx, vy, vz] = cloud.velocity;
-  let m = 0;
-  for (let i = 0; i < vx.length; i++) {
-    const s = vx[i]! * vx[i]! + vy[i]! * vy[i]! + vz[i]! * vz[i]!;
-    if (s > m) m = s;
-  }
-  return Math.sqrt(m);
-}
-
 /** The config with command-line overrides applied; --cells must be a power of two from 8 to 4096. */
 export function effectiveConfig(config: Config, opts: Pick<PlanOptions, 'cells' | 'seed' | 'workers' | 'realizations'>): Config {
   if (opts.cells !== undefined && (!isPowerOfTwo(opts.cells) || opts.cells < 8 || opts.cells > 4096)) {
@@ -95,15 +85,9 @@ export async function generateAndSurvey(config: Config, pool: WorkerPool | null,
   return { cloud, survey, seconds: { generate: (t1 - t0) / 1000, survey: (t2 - t1) / 1000 } };
 }
 
-/** Analytic budget of a generated cloud (the numbers budget and plan share). */
-export function budgetForCloud(config: Config, cloud: Cloud): BudgetResult {
-  const s = cloud.summary;
-  let peak = 0;
-  for (let i = 0; i < cloud.density.length; i++) if (cloud.density[i]! > peak) peak = cloud.density[i]!;
-  return analyticBudget(config, {
-    mass: s.mass, radius: s.radius, meanDensity: s.meanDensity, peakDensity: peak, soundSpeed: s.soundSpeed,
-    sigma1D: s.sigma1D, maxSpeed: maxSpeed(cloud), boxSize: cloud.grid.boxSize, temperature: s.temperature, mu: s.mu,
-  });
+/** The analytic budget, computed from the config exactly as `fragplan budget` does, so both agree. */
+export function budgetForConfig(config: Config): BudgetResult {
+  return analyticBudget(config, budgetCloud(config));
 }
 
 /** Runs the whole plan: generate, survey, budget, write every output. */
@@ -125,7 +109,7 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     let t = performance.now();
     const nj = config.budget.grid.cells_per_jeans_length;
     const gridRes = gridResolution(cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eosFromConfig(config), nj);
-    const budget = budgetForCloud(config, cloud);
+    const budget = budgetForConfig(config);
     timings.budget = (performance.now() - t) / 1000;
 
     let ensemble: Record<string, unknown> | undefined;
