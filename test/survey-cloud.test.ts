@@ -114,3 +114,24 @@ describe('surveyCloud', () => {
     expect(moving.nodes[0]!.gravitationalEnergy).toBe(still.nodes[0]!.gravitationalEnergy);
   });
 });
+
+describe('surveyCloud over a worker pool', () => {
+  it('gives the same energies with two workers as without (needs the built dist/worker.js)', async () => {
+    const { createPool } = await import('../src/grid/pool.js');
+    const n = 32, dx = 1e16, rho = 1e-17;
+    let s = 11;
+    const d = Float32Array.from({ length: n ** 3 }, () => { s = (Math.imul(s, 1664525) + 1013904223) >>> 0; return rho * (0.2 + (s / 2 ** 32) ** 4 * 5); });
+    const input = { grid: { nx: n, ny: n, nz: n, boxSize: n * dx }, density: d, temperature: T, mu: MU };
+    const opts = { ...base, floorDensity: rho, minCells: 2, minContrast: 0.1 };
+    const single = await surveyCloud(input, opts);
+    const pool = createPool(2);
+    try {
+      const multi = await surveyCloud(input, opts, undefined, pool);
+      expect(multi.nodes.length).toBe(single.nodes.length);
+      expect(single.nodes.length).toBeGreaterThan(3);
+      expect(multi.nodes.map((x) => x.gravitationalEnergy)).toEqual(single.nodes.map((x) => x.gravitationalEnergy));
+    } finally {
+      await pool.close();
+    }
+  });
+});
