@@ -69,6 +69,17 @@ describe('keyNumbers', () => {
   });
 });
 
+describe('keyNumbers null values', () => {
+  it('code-specific keys with null are left out; other nulls read n/a', () => {
+    const s = fixtureSummary();
+    s.resolution = { ...s.resolution, particles_needed: null, levels_needed: null };
+    const keys = keyNumbers(s).map((r) => r.key);
+    expect(keys).not.toContain('resolution.particles_needed');
+    expect(keys).not.toContain('resolution.levels_needed');
+    expect(keyNumbers(s).find((r) => r.key === 'hierarchy.cmf_slope')?.value).toBe('n/a');
+  });
+});
+
 describe('verdictOf', () => {
   it('reads the string form with verdict_reason, the object form, and nothing', () => {
     const s = fixtureSummary();

@@ -22,7 +22,8 @@ export interface VerdictText {
   reason: string;
 }
 
-type Row = readonly [key: string, label: string, unit: string];
+/** key, label, unit, and whether a null value is left out (keys that only one kind of code has). */
+type Row = readonly [key: string, label: string, unit: string, skipNull?: boolean];
 
 const CLOUD: Row[] = [
   ['mass_msun', 'Cloud mass', 'Msun'],
@@ -49,10 +50,10 @@ const RESOLUTION: Row[] = [
   ['jeans_cells_min', 'Fewest cells per Jeans length', ''],
   ['unresolved_mass_fraction', 'Mass fraction under-resolved', ''],
   ['max_resolved_density_gcc', 'Densest gas resolved', 'g cm^-3'],
-  ['levels_needed', 'Refinement levels needed', ''],
-  ['particles_needed', 'Particles needed', ''],
-  ['particle_count', 'Particles planned', ''],
-  ['resolvable_mass_msun', 'Smallest resolvable mass', 'Msun'],
+  ['levels_needed', 'Refinement levels needed', '', true],
+  ['particles_needed', 'Particles needed', '', true],
+  ['particle_count', 'Particles planned', '', true],
+  ['resolvable_mass_msun', 'Smallest resolvable mass', 'Msun', true],
   ['sink_threshold_gcc', 'Sink density threshold', 'g cm^-3'],
   ['sink_radius_pc', 'Sink accretion radius', 'pc'],
 ];
@@ -76,10 +77,11 @@ const HIERARCHY: Row[] = [
 function rows(block: Record<string, unknown> | undefined, name: string, group: string, list: Row[]): KeyNumber[] {
   if (!block) return [];
   const out: KeyNumber[] = [];
-  for (const [key, label, unit] of list) {
+  for (const [key, label, unit, skipNull] of list) {
     if (!(key in block)) continue;
     const v = block[key];
     if (v !== null && typeof v !== 'number') continue;
+    if (v === null && skipNull) continue;
     out.push({ label, value: formatNumber(v), unit, key: `${name}.${key}`, group });
   }
   return out;

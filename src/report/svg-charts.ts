@@ -5,7 +5,7 @@
  */
 import type { DensityPdfPlot, JeansHistogramPlot, MassSpectrumPlot, VelocitySpectrumPlot } from './plot-data.js';
 import { formatNumber } from './format-number.js';
-import { axes, bars, COLOURS, emptyPlot, legend, line, makeFrame, svgElement, vline } from './svg-frame.js';
+import { axes, bars, COLOURS, emptyPlot, legend, line, makeFrame, svgElement, vline, type LegendEntry } from './svg-frame.js';
 import { extent, padLinear, padLog } from './svg-scale.js';
 
 /** Normal probability density at x for the given mean and standard deviation (statistics, not physics). */
@@ -39,14 +39,15 @@ export function densityPdfSvg(p: DensityPdfPlot | null): string {
       fineY.push(gaussianPdf(s, -0.5 * sig * sig, sig));
     }
   }
-  const entries = [{ label: `measured, sigma_s = ${formatNumber(p.sigma_s_measured)}`, colour: COLOURS.data }];
-  if (sig) entries.push({ label: `lognormal expectation, sigma_s = ${formatNumber(sig)}`, colour: COLOURS.models[0] });
+  const entries: LegendEntry[] = [{ label: `measured, sigma_s = ${formatNumber(p.sigma_s_measured)}`, colour: COLOURS.data }];
+  if (sig) entries.push({ label: `lognormal expectation, sigma_s = ${formatNumber(sig)}`, colour: COLOURS.models[0], dash: '6 3' });
+  const lg = legend(f, entries);
   const body =
     axes(f, 's = ln(rho / rho0)', 'probability density per unit s', title) +
-    line(f, fine, fineY, COLOURS.models[0], '6 3') +
     line(f, xs, p.pdf, COLOURS.data, '', 2) +
-    legend(f, entries);
-  return svgElement(f, 'plot-density-pdf', title, body);
+    line(f, fine, fineY, COLOURS.models[0], '6 3', 2) +
+    lg.svg;
+  return svgElement(f, 'plot-density-pdf', title, body, lg.height);
 }
 
 /** Velocity power spectrum, log-log, with a line of the input slope P ~ k^-n anchored on the data. */
@@ -60,7 +61,7 @@ export function velocitySpectrumSvg(p: VelocitySpectrumPlot | null): string {
   const yr = padLog(extent(pw, true) as [number, number]);
   const f = makeFrame({ label: 'k', log: true, min: xr[0], max: xr[1] }, { label: 'P', log: true, min: yr[0], max: yr[1] });
   let slope = '';
-  const entries = [{ label: 'measured, shell average', colour: COLOURS.data }];
+  const entries: LegendEntry[] = [{ label: 'measured, shell average', colour: COLOURS.data }];
   if (p.input_index !== null) {
     const lo = p.k_min ?? k[0];
     const hi = p.k_max ?? k[k.length - 1];
@@ -75,11 +76,11 @@ export function velocitySpectrumSvg(p: VelocitySpectrumPlot | null): string {
       lp.push(pw[a] * (kk / k[a]) ** -p.input_index);
     }
     slope = line(f, lk, lp, COLOURS.models[0], '6 3', 2);
-    entries.push({ label: `input slope k^-${formatNumber(p.input_index)}`, colour: COLOURS.models[0] });
+    entries.push({ label: `input slope k^-${formatNumber(p.input_index)}`, colour: COLOURS.models[0], dash: '6 3' });
   }
-  const body =
-    axes(f, 'k (cycles per box)', 'P(k) (arbitrary units)', title) + line(f, k, pw, COLOURS.data, '', 2) + slope + legend(f, entries);
-  return svgElement(f, 'plot-velocity-spectrum', title, body);
+  const lg = legend(f, entries);
+  const body = axes(f, 'k (cycles per box)', 'P(k) (arbitrary units)', title) + line(f, k, pw, COLOURS.data, '', 2) + slope + lg.svg;
+  return svgElement(f, 'plot-velocity-spectrum', title, body, lg.height);
 }
 
 /** Histogram of log10 J per cell (log counts) with the 1/N_J limit line (Truelove et al. 1997). */
@@ -126,11 +127,11 @@ export function massSpectrumSvg(p: MassSpectrumPlot): string {
   const yr = padLog(extent([...dn, ...modelVals], true) as [number, number]);
   const f = makeFrame({ label: 'M', log: true, min: xr[0], max: xr[1] }, { label: 'dN', log: true, min: yr[0], max: yr[1] });
   const parts = [axes(f, 'candidate mass (Msun)', 'dN / dlog10 M', title), bars(f, edges, dn, COLOURS.data)];
-  const entries = [{ label: `candidates (${masses.length})`, colour: COLOURS.data }];
+  const entries: LegendEntry[] = [{ label: `candidates (${masses.length})`, colour: COLOURS.data }];
   p.models.forEach((m, i) => {
     const c = COLOURS.models[(i + 1) % COLOURS.models.length];
     parts.push(line(f, m.masses_msun, m.dn_dlogm, c, '4 3'));
-    entries.push({ label: m.name, colour: c, dash: '4 3' } as (typeof entries)[number]);
+    entries.push({ label: m.name, colour: c, dash: '4 3' });
   });
   if (p.fit && p.fit.slope > 1 && p.fit.n_tail > 0) {
     const { slope, xmin_msun: xmin, n_tail: n } = p.fit;
@@ -145,6 +146,7 @@ export function massSpectrumSvg(p: MassSpectrumPlot): string {
     parts.push(line(f, mm, yy, COLOURS.limit, '', 2));
     entries.push({ label: `fit dN/dM ~ M^-${formatNumber(slope)} +/- ${formatNumber(p.fit.slope_error)}`, colour: COLOURS.limit });
   }
-  parts.push(legend(f, entries));
-  return svgElement(f, 'plot-mass-spectrum', title, parts.join(''));
+  const lg = legend(f, entries);
+  parts.push(lg.svg);
+  return svgElement(f, 'plot-mass-spectrum', title, parts.join(''), lg.height);
 }

@@ -5,7 +5,7 @@
  * children. Colour = state; a ring marks fragment candidates.
  */
 import type { TreePlotNode } from './plot-data.js';
-import { axes, COLOURS, emptyPlot, makeFrame, px, svgElement } from './svg-frame.js';
+import { axes, COLOURS, emptyPlot, legend, makeFrame, px, svgElement } from './svg-frame.js';
 import { extent, padLog } from './svg-scale.js';
 import { escapeHtml } from './html-escape.js';
 import { formatNumber } from './format-number.js';
@@ -99,20 +99,12 @@ export function dendrogramSvg(all: readonly TreePlotNode[]): string {
     }
     if (n.candidate) out.push(`<circle cx="${X}" cy="${px(y1)}" r="4" fill="#ffffff" stroke="${colour}" stroke-width="2"/>`);
   }
-  const states: Array<[string, string]> = [
-    ['bound-unstable', 'bound and Jeans-unstable'],
-    ['unstable', 'Jeans-unstable, not bound'],
-    ['stable', 'stable'],
-  ];
-  const lx = f.right - 200;
-  out.push(`<rect x="${px(lx)}" y="${px(f.top + 6)}" width="194" height="72" fill="#ffffff" fill-opacity="0.85" stroke="${COLOURS.grid}"/>`);
-  states.forEach(([s, label], i) => {
-    const y = f.top + 20 + 16 * i;
-    out.push(`<line x1="${px(lx + 6)}" y1="${px(y - 4)}" x2="${px(lx + 26)}" y2="${px(y - 4)}" stroke="${COLOURS.states[s]}" stroke-width="3"/>`);
-    out.push(`<text x="${px(lx + 32)}" y="${px(y)}">${label}</text>`);
-  });
-  const yc = f.top + 20 + 16 * 3;
-  out.push(`<circle cx="${px(lx + 16)}" cy="${px(yc - 4)}" r="4" fill="#ffffff" stroke="${COLOURS.axis}" stroke-width="2"/>`);
-  out.push(`<text x="${px(lx + 32)}" y="${px(yc)}">fragment candidate</text>`);
-  return svgElement(f, 'plot-tree', title, out.join(''));
+  const lg = legend(f, [
+    { label: 'bound and Jeans-unstable', colour: COLOURS.states['bound-unstable'] },
+    { label: 'Jeans-unstable, not bound', colour: COLOURS.states.unstable },
+    { label: 'stable', colour: COLOURS.states.stable },
+    { label: 'fragment candidate', colour: COLOURS.axis, ring: true },
+  ]);
+  out.push(lg.svg);
+  return svgElement(f, 'plot-tree', title, out.join(''), lg.height);
 }

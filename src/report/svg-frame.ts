@@ -125,25 +125,40 @@ export function bars(f: Frame, edges: readonly number[], values: readonly number
   return out.join('');
 }
 
-/** A legend box in the top-right corner: one coloured sample line per entry. */
-export function legend(f: Frame, entries: Array<{ label: string; colour: string; dash?: string }>): string {
-  if (entries.length === 0) return '';
-  const w = 12 + 7 * Math.max(...entries.map((e) => e.label.length)) + 34;
-  const x0 = f.right - w - 6;
-  const y0 = f.top + 6;
-  const out = [`<rect x="${px(x0)}" y="${px(y0)}" width="${px(w)}" height="${px(16 * entries.length + 8)}" fill="#ffffff" fill-opacity="0.85" stroke="${COLOURS.grid}"/>`];
-  entries.forEach((e, i) => {
-    const y = y0 + 14 + 16 * i;
-    out.push(`<line x1="${px(x0 + 6)}" y1="${px(y - 4)}" x2="${px(x0 + 30)}" y2="${px(y - 4)}" stroke="${e.colour}" stroke-width="2"${e.dash ? ` stroke-dasharray="${e.dash}"` : ''}/>`);
-    out.push(`<text x="${px(x0 + 36)}" y="${px(y)}">${escapeHtml(e.label)}</text>`);
-  });
-  return out.join('');
+/** One legend entry: a sample line (or ring) and its label. */
+export interface LegendEntry {
+  label: string;
+  colour: string;
+  dash?: string;
+  ring?: boolean;
 }
 
-/** Wraps plot content in one <svg> element with an accessible title. */
-export function svgElement(f: Frame, id: string, title: string, content: string): string {
+/** A legend below the axes, entries laid out left to right and wrapped; returns the SVG and the height it adds. */
+export function legend(f: Frame, entries: readonly LegendEntry[]): { svg: string; height: number } {
+  if (entries.length === 0) return { svg: '', height: 0 };
+  const out: string[] = [];
+  let x = f.left;
+  let row = 0;
+  for (const e of entries) {
+    const w = 36 + 6.2 * e.label.length + 14;
+    if (x + w > f.width - 8 && x > f.left) {
+      x = f.left;
+      row++;
+    }
+    const y = f.height + 4 + 16 * row;
+    if (e.ring) out.push(`<circle cx="${px(x + 12)}" cy="${px(y - 4)}" r="4" fill="#ffffff" stroke="${e.colour}" stroke-width="2"/>`);
+    else out.push(`<line x1="${px(x)}" y1="${px(y - 4)}" x2="${px(x + 24)}" y2="${px(y - 4)}" stroke="${e.colour}" stroke-width="2"${e.dash ? ` stroke-dasharray="${e.dash}"` : ''}/>`);
+    out.push(`<text x="${px(x + 30)}" y="${px(y)}">${escapeHtml(e.label)}</text>`);
+    x += w;
+  }
+  return { svg: out.join(''), height: 16 * (row + 1) + 6 };
+}
+
+/** Wraps plot content in one <svg> element with an accessible title; `extra` pixels are added below the frame (legend). */
+export function svgElement(f: Frame, id: string, title: string, content: string, extra = 0): string {
+  const h = f.height + extra;
   return (
-    `<svg xmlns="http://www.w3.org/2000/svg" id="${escapeHtml(id)}" class="plot" width="${f.width}" height="${f.height}" viewBox="0 0 ${f.width} ${f.height}" role="img" aria-label="${escapeHtml(title)}">` +
+    `<svg xmlns="http://www.w3.org/2000/svg" id="${escapeHtml(id)}" class="plot" width="${f.width}" height="${h}" viewBox="0 0 ${f.width} ${h}" role="img" aria-label="${escapeHtml(title)}">` +
     `<title>${escapeHtml(title)}</title>${content}</svg>`
   );
 }

@@ -165,6 +165,12 @@ function volume(data: PreviewData): void {
   }
   const v = view;
   const slider = $('threshold') as HTMLInputElement;
+  // start at the cloud's mean density when the run gives it: the over-dense gas shows
+  const mean = data.summary?.cloud?.mean_density_gcc;
+  const [lo0, hi0] = v.densityRange;
+  if (typeof mean === 'number' && mean > lo0 && mean < hi0 && hi0 > lo0) {
+    slider.value = String(Math.min(0.9, Math.max(0, (Math.log10(mean) - Math.log10(lo0)) / (Math.log10(hi0) - Math.log10(lo0)))));
+  }
   const label = () => {
     const t = Number(slider.value);
     const [lo, hi] = v.densityRange;

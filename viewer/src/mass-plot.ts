@@ -12,8 +12,10 @@ function esc(t: string): string {
 }
 
 /** SVG markup of the mass spectrum, `w` x `h` pixels. */
-export function massSpectrumSvg(p: MassSpectrumPlot | null, w = 340, h = 230): string {
-  const head = `<svg xmlns="http://www.w3.org/2000/svg" width="${w}" height="${h}" viewBox="0 0 ${w} ${h}" class="mass-plot">`;
+export function massSpectrumSvg(p: MassSpectrumPlot | null, w = 380, h = 230): string {
+  const nLegend = (p?.models.length ?? 0) + (p?.fit ? 1 : 0);
+  const H = h + 13 * nLegend + 4;
+  const head = `<svg xmlns="http://www.w3.org/2000/svg" width="${w}" height="${H}" viewBox="0 0 ${w} ${H}" class="mass-plot">`;
   const masses = (p?.masses_msun ?? []).filter((m) => m > 0 && Number.isFinite(m));
   if (!p || masses.length === 0) return `${head}<text x="10" y="24">No fragment candidates.</text></svg>`;
   const lm = masses.map(Math.log10);
@@ -59,7 +61,7 @@ export function massSpectrumSvg(p: MassSpectrumPlot | null, w = 340, h = 230): s
     out.push(`<line x1="${X(Math.log10(xmin)).toFixed(1)}" y1="${Y(Math.log10(f(xmin))).toFixed(1)}" x2="${X(Math.log10(hi)).toFixed(1)}" y2="${Y(Math.log10(f(hi))).toFixed(1)}" stroke="#c0392b" stroke-width="2"/>`);
     legend.push(`<tspan fill="#c0392b">&#8212; fit slope ${slope.toPrecision(3)}</tspan>`);
   }
-  legend.forEach((l, i) => out.push(`<text x="${R - 6}" y="${T + 14 + 13 * i}" text-anchor="end">${l}</text>`));
+  legend.forEach((l, i) => out.push(`<text x="${L}" y="${h + 10 + 13 * i}">${l}</text>`));
   out.push('</svg>');
   return out.join('');
 }

@@ -58,7 +58,8 @@ export function buildTreePanel(host: HTMLElement, tree: readonly TreePlotNode[],
     dot.className = 'dot';
     dot.style.background = STATE_COLOURS[n.state] ?? '#999';
     b.appendChild(dot);
-    b.appendChild(document.createTextNode(`#${n.id} ${n.mass_msun.toPrecision(3)} Msun${n.candidate ? ' (candidate)' : ''}`));
+    const depth = Number(parentUl.dataset.depth ?? '0');
+    b.appendChild(document.createTextNode(`#${n.id} ${n.mass_msun.toPrecision(3)} Msun${n.candidate ? ' (candidate)' : ''}${depth > 8 ? ` [depth ${depth}]` : ''}`));
     b.addEventListener('click', () => {
       const next = selected === n.id ? null : n.id;
       mark(next);
@@ -70,6 +71,9 @@ export function buildTreePanel(host: HTMLElement, tree: readonly TreePlotNode[],
     const children = kids.get(n.id) ?? [];
     if (children.length) {
       const ul = document.createElement('ul');
+      // merge trees can be deep chains: indent the first levels only, then list flat
+      ul.dataset.depth = String(depth + 1);
+      ul.style.paddingLeft = depth + 1 <= 8 ? '12px' : '0';
       li.appendChild(ul);
       for (let i = children.length - 1; i >= 0; i--) stack.push([children[i], ul]);
     }
