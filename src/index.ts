@@ -44,3 +44,5 @@ export { generateCloud, estimateGenerateBytes, type GenerateOptions } from './ge
 export { cloudDimensions, type CloudDimensions } from './generate/dimensions.js';
 export * from './grid/spectrum.js';
 export * from './grid/histogram.js';
+export * from './survey/index.js';
+export * from './physics/mass-functions.js';
