@@ -12,6 +12,8 @@ import { parseConfig, loadConfig } from '../config/load.js';
 import type { Config } from '../config/schema.js';
 import { parseUnit, describeDimension, DIM } from '../physics/units.js';
 import { MU_DEFAULT, MU_H2, M_H } from '../physics/constants.js';
+import { parse as parseYaml } from 'yaml';
+import { readIcManifest, readIcCloud } from '../export/manifest-read.js';
 import type { Grid3 } from '../grid/grid3.js';
 import { volumeIntegral } from '../grid/grid3.js';
 import { surveyCloud } from '../survey/survey-cloud.js';
@@ -73,67 +75,65 @@ export async function runSurvey(target: string, opts: SurveyCommandOptions): Pro
   const progress = opts.progress ?? silentProgress;
   if (!existsSync(target)) throw new InputError(`${target}: no such file or folder`);
   let config = opts.configFile ? loadConfig(opts.configFile).config : defaultConfig();
-  let cubeFile = target;
-  let boxSize = opts.boxSize;
-  let temperature = opts.temperature;
-  let mu = opts.mu;
-  let factor = densityFactor(opts.densityUnit);
-  if (statSync(target).isDirectory()) {
-    const manifestFile = path.join(target, 'ic', 'manifest.json');
-    if (!existsSync(manifestFile)) throw new InputError(`${manifestFile}: not found (expected a plan run folder)`);
-    let manifest: Record<string, unknown>;
-    try {
-      manifest = JSON.parse(readFileSync(manifestFile, 'utf8')) as Record<string, unknown>;
-    } catch {
-      throw new InputError(`${manifestFile}: not valid JSON`);
-    }
-    const { runDensityFile, runDescription } = await import('../export/manifest-read.js');
-    const d = runDescription(manifest, manifestFile);
-    cubeFile = runDensityFile(manifest, path.join(target, 'ic'), manifestFile);
-    boxSize ??= d.boxSize;
-    temperature ??= d.temperature;
-    mu ??= d.mu;
-    factor = d.densityToCgs;
-    if (d.configText && !opts.configFile) config = parseConfig((await import('yaml')).parse(d.configText), manifestFile);
-  }
-  if (boxSize === undefined) throw new InputError('--box-size: required for a cube (e.g. --box-size "2 pc")');
-  temperature ??= 10;
-  mu ??= MU_DEFAULT;
-  if (!(mu > 0.5 && mu < 4)) throw new InputError(`--mu: expected a mean molecular weight between 0.5 and 4, got ${mu}`);
-
   const t0 = performance.now();
-  const cube = loadCube(cubeFile, { shape: parseShape(opts.shape), dtype: opts.dtype as 'float32' | 'float64' | undefined });
-  const [nx, ny, nz] = cube.shape;
-  if (factor !== 1) for (let i = 0; i < cube.density.length; i++) cube.density[i] = cube.density[i]! * factor;
-  let velocity: [Float32Array, Float32Array, Float32Array] | null = null;
-  if (opts.velocity) {
-    const files = opts.velocity.split(',').map((s) => s.trim());
-    if (files.length !== 3) throw new InputError(`--velocity: expected three files vx,vy,vz, got "${opts.velocity}"`);
-    const v = files.map((f) => loadCube(f, { shape: parseShape(opts.shape), dtype: opts.dtype as 'float32' | undefined }));
-    v.forEach((c, i) => {
-      if (c.shape.join() !== cube.shape.join()) throw new InputError(`${files[i]}: shape (${c.shape.join(', ')}) differs from the density cube's (${cube.shape.join(', ')})`);
-    });
-    velocity = [v[0]!.density, v[1]!.density, v[2]!.density];
+  let grid: Grid3;
+  let density: Float32Array;
+  let velocity: readonly [Float32Array, Float32Array, Float32Array] | null = null;
+  let magnetic: readonly [Float32Array, Float32Array, Float32Array] | null = null;
+  let temperature: number | Float32Array;
+  let mu: number;
+  let sourceFile: string;
+  let info: { ambientDensity: number | null; mach: number | null; velocitySpectrumIndex: number | null } = { ambientDensity: null, mach: null, velocitySpectrumIndex: null };
+  if (statSync(target).isDirectory()) {
+    // a plan run folder: every field comes back from ic/ (checked against the manifest's sha256)
+    const { manifest, manifestFile, icDir } = readIcManifest(target);
+    const cloud = await readIcCloud(manifest, icDir, manifestFile);
+    if (typeof manifest.config_text === 'string' && !opts.configFile) config = parseConfig(parseYaml(manifest.config_text), manifestFile);
+    ({ grid, density, velocity, magnetic } = cloud);
+    temperature = opts.temperature ?? cloud.temperature;
+    mu = opts.mu ?? cloud.summary.mu;
+    sourceFile = manifestFile;
+    info = { ambientDensity: cloud.summary.ambientDensity, mach: cloud.summary.mach, velocitySpectrumIndex: cloud.summary.velocitySpectrumIndex };
+  } else {
+    if (opts.boxSize === undefined) throw new InputError('--box-size: required for a cube (e.g. --box-size "2 pc")');
+    temperature = opts.temperature ?? 10;
+    mu = opts.mu ?? MU_DEFAULT;
+    const factor = densityFactor(opts.densityUnit);
+    const cube = loadCube(target, { shape: parseShape(opts.shape), dtype: opts.dtype as 'float32' | 'float64' | undefined });
+    density = cube.density;
+    if (factor !== 1) for (let i = 0; i < density.length; i++) density[i] = density[i]! * factor;
+    const [nx, ny, nz] = cube.shape;
+    grid = { nx, ny, nz, boxSize: opts.boxSize };
+    if (opts.velocity) {
+      const files = opts.velocity.split(',').map((x) => x.trim());
+      if (files.length !== 3) throw new InputError(`--velocity: expected three files vx,vy,vz, got "${opts.velocity}"`);
+      const v = files.map((f) => loadCube(f, { shape: parseShape(opts.shape), dtype: opts.dtype as 'float32' | undefined }));
+      v.forEach((c, i) => {
+        if (c.shape.join() !== cube.shape.join()) throw new InputError(`${files[i]}: shape (${c.shape.join(', ')}) differs from the density cube's (${cube.shape.join(', ')})`);
+      });
+      velocity = [v[0]!.density, v[1]!.density, v[2]!.density];
+    }
+    sourceFile = target;
   }
-  const grid: Grid3 = { nx, ny, nz, boxSize };
+  if (!(mu > 0.5 && mu < 4)) throw new InputError(`--mu: expected a mean molecular weight between 0.5 and 4, got ${mu}`);
   const tLoad = (performance.now() - t0) / 1000;
 
   const runDir = opts.out ?? path.join('runs', `${path.basename(target).replace(/\.(npy|raw|bin|dat)$/i, '')}-survey`);
   assertRunDirUsable(runDir, opts.force);
-  const options = { ...surveyOptionsFromConfig(config, { ambientDensity: null, mach: null, velocitySpectrumIndex: null }), mach: null, velocitySpectrumIndex: null };
+  const options = surveyOptionsFromConfig(config, info);
   const t1 = performance.now();
-  const survey = await surveyCloud({ grid, density: cube.density, velocity, magnetic: null, temperature, mu, eos: eosFromConfig(config) }, options, progress, null);
+  const survey = await surveyCloud({ grid, density, velocity, magnetic, temperature, mu, eos: eosFromConfig(config) }, options, progress, null);
   const tSurvey = (performance.now() - t1) / 1000;
   const nj = config.budget.grid.cells_per_jeans_length;
-  const gridRes = gridResolution(grid, cube.density, temperature, mu, eosFromConfig(config), nj);
-  const sha = createHash('sha256').update(readFileSync(cubeFile)).digest('hex');
+  const gridRes = gridResolution(grid, density, temperature, mu, eosFromConfig(config), nj);
+  const sha = createHash('sha256').update(readFileSync(sourceFile)).digest('hex');
   const summary = buildSummary({
     name: path.basename(runDir), toolVersion: TOOL_VERSION, seed: null, configSha256: null,
-    grid: { ...gridBlock(grid, volumeIntegral(grid, cube.density)), source_file: cubeFile, source_sha256: sha, temperature_k: temperature, mu },
+    grid: { ...gridBlock(grid, volumeIntegral(grid, density)), source_file: sourceFile, source_sha256: sha, temperature_k: typeof temperature === 'number' ? temperature : null, mu },
     resolution: gridResolutionSummary(gridRes, nj), hierarchy: hierarchySummary(survey),
     warnings: [], timings: { load: tLoad, survey: tSurvey },
   });
-  const plots = buildPlots(null, survey, gridRes, nj, { grid, density: cube.density });
+  const plots = buildPlots(null, survey, gridRes, nj, { grid, density });
   mkdirSync(runDir, { recursive: true });
   const files: string[] = [];
   const put = (name: string, data: string): void => {
