@@ -26,6 +26,10 @@ describe('config validation', () => {
     expect(c.survey.jeans_mass).toBe('sphere');
     expect(c.budget.grid.cells_per_jeans_length).toBe(4);
     expect(c.export.formats).toEqual(['npy']);
+    // quantity defaults are parsed in their default unit, like written values
+    expect(c.export.code_units.length / PC.value).toBeCloseTo(1, 12);
+    expect(c.export.code_units.mass / M_SUN.value).toBeCloseTo(1, 12);
+    expect(c.cloud.eos.critical_density).toBe(1e-13);
   });
   it('names an unknown key', () => {
     expect(errorOf(`${ok}  colour: blue\n`)).toMatch(/^c\.yaml: cloud: unknown key "colour"/);

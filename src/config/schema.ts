@@ -125,7 +125,7 @@ const magnetic = z
 const eos = z.strictObject({
   kind: z.enum(['isothermal', 'barotropic']).default('isothermal'),
   /** Stiffening density (g/cm^3), Masunaga & Inutsuka 2000. */
-  critical_density: quantity('massDensity', 'g cm^-3').default(BAROTROPIC_CRITICAL_DENSITY),
+  critical_density: quantity('massDensity', 'g cm^-3').prefault(BAROTROPIC_CRITICAL_DENSITY),
   gamma: z.number().min(1).max(2).default(BAROTROPIC_GAMMA),
 });
 
@@ -134,7 +134,7 @@ const cloud = z.strictObject({
   mass: quantity('mass', 'Msun').optional(),
   /** Cloud radius (pc); for a filament its cross-section radius; derived for a Bonnor-Ebert sphere when absent. */
   radius: quantity('length', 'pc').optional(),
-  temperature: quantity('temperature', 'K').default(10),
+  temperature: quantity('temperature', 'K').prefault(10),
   /** Mean molecular weight per free particle (2.33 for molecular gas with helium). */
   mu: z.number().min(0.5).max(4).default(MU_DEFAULT),
   envelope: envelope.prefault({ model: 'uniform' }),
@@ -173,7 +173,7 @@ const survey = z.strictObject({
   /** ... and a peak at least (1 + min_contrast) times its merge density. */
   min_contrast: z.number().min(0).default(0.5),
   /** ... and at least this mass (Msun). */
-  min_mass: quantity('mass', 'Msun', { nonNegative: true }).default(0),
+  min_mass: quantity('mass', 'Msun', { nonNegative: true }).prefault(0),
   /** Cells above this density are surveyed; default: the ambient density x 2. */
   floor_density: quantity('massDensity', 'g cm^-3').optional(),
   /** Self-gravity of a node uses at most this many cells per side (coarse-grained above). */
@@ -219,8 +219,8 @@ const exportSection = z.strictObject({
   units: z.enum(['cgs', 'si', 'code']).default('cgs'),
   /** Code units with G = 1: the length and mass units. */
   code_units: z.strictObject({
-    length: quantity('length', 'pc').default(1),
-    mass: quantity('mass', 'Msun').default(1),
+    length: quantity('length', 'pc').prefault(1),
+    mass: quantity('mass', 'Msun').prefault(1),
   }).prefault({}),
   /** Thermal field written beside density and velocity. */
   thermal_field: z.enum(['temperature', 'internal_energy']).default('temperature'),

@@ -11,20 +11,13 @@
  * below ~100 K, so it behaves as monatomic; common practice).
  */
 import type { Cloud } from '../generate/cloud.js';
-import { soundSpeed } from '../physics/sound-speed.js';
 import type { QuantityKind, UnitSystem } from './unit-system.js';
+import { internalEnergyPerKelvin } from '../physics/internal-energy.js';
 
-/** Adiabatic index used to turn temperature into specific internal energy. */
-export const INTERNAL_ENERGY_GAMMA = 5 / 3;
+export { INTERNAL_ENERGY_GAMMA, internalEnergyPerKelvin } from '../physics/internal-energy.js';
 
 /** Which thermal field is written. */
 export type ThermalField = 'temperature' | 'internal_energy';
-
-/** Specific internal energy per kelvin, erg g^-1 K^-1: c_s^2(T = 1 K) / (gamma - 1) for mean molecular weight mu. */
-export function internalEnergyPerKelvin(mu: number, gamma = INTERNAL_ENERGY_GAMMA): number {
-  const c1 = soundSpeed(1, mu);
-  return (c1 * c1) / (gamma - 1);
-}
 
 /** One exported scalar field: a Cloud array, its kind and the factor from cgs to file values. */
 export interface GridField {
