@@ -57,3 +57,18 @@ describe('fragplan survey', () => {
     expect(s.grid.mass_on_grid_msun / massMsun).toBeCloseTo(1, 5);
   });
 });
+
+describe('fragplan survey with velocity cubes', () => {
+  it('reads signed velocities and uses them for turbulent support', () => {
+    const run = path.join(tmp, 'run', 'ic');
+    const v = ['x', 'y', 'z'].map((a) => path.join(run, `velocity_${a}.npy`)).join(',');
+    const withV = fragplan(['survey', path.join(run, 'density.npy'), '--box-size', '2 pc', '--temperature', '15 K', '--velocity', v, '--out', path.join(tmp, 'sv5'), '--json']);
+    expect(withV.stderr).toBe('');
+    expect(withV.status).toBe(0);
+    const without = fragplan(['survey', path.join(run, 'density.npy'), '--box-size', '2 pc', '--temperature', '15 K', '--out', path.join(tmp, 'sv6'), '--json']);
+    const a = JSON.parse(withV.stdout).hierarchy, b = JSON.parse(without.stdout).hierarchy;
+    expect(a.nodes).toBe(b.nodes);
+    // turbulent support raises every Jeans mass, so never more unstable nodes than with thermal support alone
+    expect(a.unstable_nodes).toBeLessThanOrEqual(b.unstable_nodes);
+  });
+});

@@ -17,7 +17,7 @@ import { readIcManifest, readIcCloud } from '../export/manifest-read.js';
 import type { Grid3 } from '../grid/grid3.js';
 import { volumeIntegral } from '../grid/grid3.js';
 import { surveyCloud } from '../survey/survey-cloud.js';
-import { loadCube, surveyOptionsFromConfig, hierarchySummary, treeJson, fragmentsCsv } from '../survey/index.js';
+import { loadCube, loadVelocityCubes, surveyOptionsFromConfig, hierarchySummary, treeJson, fragmentsCsv } from '../survey/index.js';
 import { gridResolution, gridResolutionSummary, eosFromConfig } from '../budget/index.js';
 import { buildSummary, gridBlock, jsonText, withoutTimings } from '../report/build-summary.js';
 import { buildPlots } from '../report/build-plots.js';
@@ -107,11 +107,7 @@ export async function runSurvey(target: string, opts: SurveyCommandOptions): Pro
     if (opts.velocity) {
       const files = opts.velocity.split(',').map((x) => x.trim());
       if (files.length !== 3) throw new InputError(`--velocity: expected three files vx,vy,vz, got "${opts.velocity}"`);
-      const v = files.map((f) => loadCube(f, { shape: parseShape(opts.shape), dtype: opts.dtype as 'float32' | undefined }));
-      v.forEach((c, i) => {
-        if (c.shape.join() !== cube.shape.join()) throw new InputError(`${files[i]}: shape (${c.shape.join(', ')}) differs from the density cube's (${cube.shape.join(', ')})`);
-      });
-      velocity = [v[0]!.density, v[1]!.density, v[2]!.density];
+      velocity = loadVelocityCubes(files, cube.shape, { shape: parseShape(opts.shape), dtype: opts.dtype as 'float32' | 'float64' | undefined });
     }
     sourceFile = target;
   }
