@@ -58,7 +58,7 @@ const RESOLUTION: Row[] = [
   ['sink_radius_pc', 'Sink accretion radius', 'pc'],
 ];
 const COST: Row[] = [
-  ['core_hours', 'Cost', 'core-hours'],
+  ['core_hours', 'Core-hours (needs budget.throughput)', 'core-hours'],
   ['memory_gib', 'Memory at start', 'GiB'],
   ['run_time_myr', 'Simulated time', 'Myr'],
   ['time_step_yr', 'Base time step', 'yr'],
