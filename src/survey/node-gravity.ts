@@ -15,6 +15,13 @@
  * short-range part, where coarse-graining errs, sits in the children's own terms. The error of
  * the bracket is estimated as its change from factor 2f to f (safe for errors falling as a^p,
  * p >= 1); node errors add their children's absolute errors.
+ *
+ * Cost. Bounding boxes are merged bottom-up. A parent's coarse masses are built from its own
+ * cells plus its children's coarse boxes (already on the parent's lattice, kept until the
+ * parent is done), never from all its descendants' cells again, so building every grid costs
+ * O(cells + nodes x box size) rather than O(cells x tree depth). Nodes without the tree terms
+ * deposit their cells directly, in list order, as before. The energy sums (FFT convolutions,
+ * pair sums) run on the worker pool.
  */
 import type { MergeTree } from './merge-tree.js';
 import type { WorkerPool } from '../grid/pool.js';
@@ -31,18 +38,6 @@ export interface NodeGravity {
   relativeError: Float64Array;
 }
 
-function extent(set: CellSet): number {
-  const { i: I, j: J, k: K } = set;
-  let i0 = Infinity, j0 = Infinity, k0 = Infinity, i1 = -1, j1 = -1, k1 = -1;
-  for (let p = 0; p < I.length; p++) {
-    const i = I[p]!, j = J[p]!, k = K[p]!;
-    if (i < i0) i0 = i; if (i > i1) i1 = i;
-    if (j < j0) j0 = j; if (j > j1) j1 = j;
-    if (k < k0) k0 = k; if (k > k1) k1 = k;
-  }
-  return i1 < 0 ? 0 : Math.max(i1 - i0, j1 - j0, k1 - k0) + 1;
-}
-
 function pow2Above(x: number): number {
   let p = 1;
   while (p < x) p *= 2;
@@ -52,6 +47,65 @@ function pow2Above(x: number): number {
 /** Energies (erg) of a list of coarse grids; the unit of work sent to a worker. */
 export function coarseEnergies(grids: readonly CoarseMass[]): number[] {
   return grids.map((c) => coarseSelfEnergy(c));
+}
+
+/** Coarse masses (g) of one node on the global lattice of factor f, over the node's coarse bounding box only. */
+interface Box {
+  readonly sh: number;
+  /** Coarse origin (lattice indices) and extent per axis. */
+  readonly o0: number; readonly o1: number; readonly o2: number;
+  readonly s0: number; readonly s1: number; readonly s2: number;
+  /** s0*s1*s2 masses, C order. */
+  readonly mass: Float64Array;
+}
+
+/** An empty box of factor 2^sh over the fine bounding box bb (i0, j0, k0, i1, j1, k1 at bb[6t..6t+5]). */
+function emptyBox(bb: Int32Array, t: number, sh: number): Box {
+  const b = 6 * t;
+  const o0 = bb[b]! >> sh, o1 = bb[b + 1]! >> sh, o2 = bb[b + 2]! >> sh;
+  const s0 = (bb[b + 3]! >> sh) - o0 + 1, s1 = (bb[b + 4]! >> sh) - o1 + 1, s2 = (bb[b + 5]! >> sh) - o2 + 1;
+  return { sh, o0, o1, o2, s0, s1, s2, mass: new Float64Array(s0 * s1 * s2) };
+}
+
+/** Adds the masses (g) of cells [a, b) of `all` to the box. */
+function depositCells(box: Box, all: CellSet, a: number, b: number, vol: number): void {
+  const { sh, o0, o1, o2, s1, s2, mass } = box;
+  const { i: I, j: J, k: K, rho } = all;
+  for (let p = a; p < b; p++) mass[(((I[p]! >> sh) - o0) * s1 + ((J[p]! >> sh) - o1)) * s2 + ((K[p]! >> sh) - o2)]! += rho[p]! * vol;
+}
+
+/** Adds a finer (or equal) box's masses to a coarser box (its region must lie inside). */
+function addBox(into: Box, from: Box): void {
+  const d = into.sh - from.sh;
+  const { o0, o1, o2, s1, s2, mass } = into;
+  const m = from.mass;
+  for (let a = 0, p = 0; a < from.s0; a++) {
+    const x = (((from.o0 + a) >> d) - o0) * s1;
+    for (let b = 0; b < from.s1; b++) {
+      const y = (x + ((from.o1 + b) >> d) - o1) * s2;
+      for (let c = 0; c < from.s2; c++, p++) {
+        const v = m[p]!;
+        if (v !== 0) mass[y + ((from.o2 + c) >> d) - o2]! += v;
+      }
+    }
+  }
+}
+
+/** The box as a CoarseMass on a cube of g = max(2, next power of two of its longest side) cells, cell side 2^sh dx. */
+function toCoarse(box: Box, dx: number): CoarseMass {
+  const g = Math.max(2, pow2Above(Math.max(box.s0, box.s1, box.s2)));
+  const mass = new Float64Array(g * g * g);
+  let occupied = 0;
+  for (let a = 0, p = 0; a < box.s0; a++) for (let b = 0; b < box.s1; b++) {
+    const q = (a * g + b) * g;
+    for (let c = 0; c < box.s2; c++, p++) {
+      const v = box.mass[p]!;
+      mass[q + c] = v;
+      if (v > 0) occupied++;
+    }
+  }
+  const factor = 1 << box.sh;
+  return { g, factor, side: factor * dx, mass, occupied };
 }
 
 type Job = { kind: 'adaptive'; id: number; grid: CoarseMass } | { kind: 'terms'; id: number; grids: CoarseMass[]; children: number };
@@ -71,28 +125,89 @@ export async function nodeGravity(
   const n = tree.count;
   const out: NodeGravity = { energy: new Float64Array(n), factor: new Int32Array(n), cellsPerSide: new Int32Array(n), relativeError: new Float64Array(n) };
   const corrF = new Float64Array(n), corr2F = new Float64Array(n), isTerms = new Uint8Array(n);
+  const vol = dx * dx * dx;
   // coordinates and densities of the listed cells, once, so deposits need no index arithmetic
   const m = lists.cells.length;
   const all: CellSet = { i: new Int32Array(m), j: new Int32Array(m), k: new Int32Array(m), rho: new Float32Array(m) };
+  const nyz = shape.ny * shape.nz;
   for (let p = 0; p < m; p++) {
     const c = lists.cells[p]!;
-    all.i[p] = Math.floor(c / (shape.ny * shape.nz));
-    all.j[p] = Math.floor(c / shape.nz) % shape.ny;
-    all.k[p] = c % shape.nz;
+    const i = Math.floor(c / nyz), r = c - i * nyz, j = Math.floor(r / shape.nz);
+    all.i[p] = i;
+    all.j[p] = j;
+    all.k[p] = r - j * shape.nz;
     all.rho[p] = density[c]!;
   }
   const cellsOf = (id: number): CellSet => {
     const a = lists.start[id]!, b = lists.end[id]!;
     return { i: all.i.subarray(a, b), j: all.j.subarray(a, b), k: all.k.subarray(a, b), rho: all.rho.subarray(a, b) };
   };
+  // own cells of t are [start, ownEnd): its children's subtrees follow them in the list
+  const ownEnd = Int32Array.from(lists.end);
+  for (let t = 0; t < n; t++) for (const c of tree.children[t]!) if (lists.start[c]! < ownEnd[t]!) ownEnd[t] = lists.start[c]!;
+  // fine bounding boxes, bottom-up (children have smaller ids)
+  const bb = new Int32Array(6 * n);
+  for (let t = 0; t < n; t++) {
+    let i0 = 2 ** 30, j0 = 2 ** 30, k0 = 2 ** 30, i1 = -1, j1 = -1, k1 = -1;
+    for (let p = lists.start[t]!; p < ownEnd[t]!; p++) {
+      const i = all.i[p]!, j = all.j[p]!, k = all.k[p]!;
+      if (i < i0) i0 = i; if (i > i1) i1 = i;
+      if (j < j0) j0 = j; if (j > j1) j1 = j;
+      if (k < k0) k0 = k; if (k > k1) k1 = k;
+    }
+    for (const c of tree.children[t]!) {
+      const b = 6 * c;
+      if (bb[b]! < i0) i0 = bb[b]!; if (bb[b + 3]! > i1) i1 = bb[b + 3]!;
+      if (bb[b + 1]! < j0) j0 = bb[b + 1]!; if (bb[b + 4]! > j1) j1 = bb[b + 4]!;
+      if (bb[b + 2]! < k0) k0 = bb[b + 2]!; if (bb[b + 5]! > k1) k1 = bb[b + 5]!;
+    }
+    bb.set([i0, j0, k0, i1, j1, k1], 6 * t);
+  }
+  // interaction lattice shift per node: factor 2^sh, or -1 for nodes summed adaptively
+  const shiftOf = new Int32Array(n);
+  for (let t = 0; t < n; t++) {
+    const b = 6 * t;
+    const ext = Math.max(bb[b + 3]! - bb[b]!, bb[b + 4]! - bb[b + 1]!, bb[b + 5]! - bb[b + 2]!) + 1;
+    const f = pow2Above(Math.ceil(ext / PARENT_CELLS));
+    shiftOf[t] = tree.children[t]!.length === 0 || f === 1 ? -1 : Math.round(Math.log2(f));
+  }
+  // boxes of a node on its parent's lattices (factors f and 2f), kept until the parent is done
+  const upF: Array<Box | null> = new Array(n).fill(null);
+  const up2F: Array<Box | null> = new Array(n).fill(null);
   const makeJob = (id: number): Job => {
-    const cells = cellsOf(id);
-    const b = extent(cells);
     const kids = tree.children[id]!;
-    const f = pow2Above(Math.ceil(b / PARENT_CELLS));
-    if (kids.length === 0 || f === 1) return { kind: 'adaptive', id, grid: coarseGrainSet(cells, dx, gravityCells) };
-    const grids: CoarseMass[] = [coarseGrainSet(cells, dx, gravityCells, f), coarseGrainSet(cells, dx, gravityCells, 2 * f)];
-    for (const c of kids) grids.push(coarseGrainSet(cellsOf(c), dx, gravityCells, f), coarseGrainSet(cellsOf(c), dx, gravityCells, 2 * f));
+    const sh = shiftOf[id]!;
+    const p = tree.parent[id]!;
+    const psh = p >= 0 ? shiftOf[p]! : -1;
+    if (sh < 0) {
+      if (psh >= 0) {
+        // direct deposits of all the node's cells, in list order, on the parent's lattices
+        const a = emptyBox(bb, id, psh), b = emptyBox(bb, id, psh + 1);
+        depositCells(a, all, lists.start[id]!, lists.end[id]!, vol);
+        depositCells(b, all, lists.start[id]!, lists.end[id]!, vol);
+        upF[id] = a; up2F[id] = b;
+      }
+      return { kind: 'adaptive', id, grid: coarseGrainSet(cellsOf(id), dx, gravityCells) };
+    }
+    const own = emptyBox(bb, id, sh), own2 = emptyBox(bb, id, sh + 1);
+    depositCells(own, all, lists.start[id]!, ownEnd[id]!, vol);
+    depositCells(own2, all, lists.start[id]!, ownEnd[id]!, vol);
+    const grids: CoarseMass[] = [];
+    const childGrids: CoarseMass[] = [];
+    for (const c of kids) {
+      const a = upF[c]!, b = up2F[c]!;
+      addBox(own, a);
+      addBox(own2, b);
+      childGrids.push(toCoarse(a, dx), toCoarse(b, dx));
+      upF[c] = null; up2F[c] = null;
+    }
+    grids.push(toCoarse(own, dx), toCoarse(own2, dx), ...childGrids);
+    if (psh >= 0) {
+      const a = emptyBox(bb, id, psh), b = emptyBox(bb, id, psh + 1);
+      addBox(a, own);
+      addBox(b, own2);
+      upF[id] = a; up2F[id] = b;
+    }
     return { kind: 'terms', id, grids, children: kids.length };
   };
   let done = 0;
