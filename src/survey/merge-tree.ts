@@ -154,22 +154,38 @@ export function buildMergeTree(
   };
 
   const offs = neighbourOffsets(connectivity);
-  const roots = new Int32Array(offs.length);
+  const no = offs.length;
+  // neighbour offsets as flat index steps and per-axis steps (same order as offs)
+  const offFlat = new Int32Array(no), offI = new Int32Array(no), offJ = new Int32Array(no), offK = new Int32Array(no);
+  for (let o = 0; o < no; o++) {
+    const [di, dj, dk] = offs[o]!;
+    offI[o] = di; offJ[o] = dj; offK[o] = dk;
+    offFlat[o] = (di * ny + dj) * nz + dk;
+  }
+  const nyz = ny * nz;
+  const roots = new Int32Array(no);
   const sig: number[] = [];
   const report = Math.max(1, Math.floor(m / 100));
+  let nextReport = report;
   for (let p = m - 1; p >= 0; p--) {
     const c = order[p]!;
     const d = density[c]!;
-    const i = Math.floor(c / (ny * nz));
-    const j = Math.floor(c / nz) % ny;
-    const k = c % nz;
+    const i = (c / nyz) | 0;
+    const rem = c - i * nyz;
+    const j = (rem / nz) | 0;
+    const k = rem - j * nz;
+    const interior = i > 0 && i < nx - 1 && j > 0 && j < ny - 1 && k > 0 && k < nz - 1;
     let nr = 0;
-    for (const [di, dj, dk] of offs) {
-      const a = i + di, b = j + dj, e = k + dk;
-      if (a < 0 || a >= nx || b < 0 || b >= ny || e < 0 || e >= nz) continue;
-      const q = (a * ny + b) * nz + e;
+    for (let o = 0; o < no; o++) {
+      if (!interior) {
+        const a = i + offI[o]!, b = j + offJ[o]!, e = k + offK[o]!;
+        if (a < 0 || a >= nx || b < 0 || b >= ny || e < 0 || e >= nz) continue;
+      }
+      const q = c + offFlat[o]!;
       if (uf[q] === -1) continue;
-      const r = find(q);
+      // find with path halving
+      let r = q;
+      while (uf[r] !== r) { const h = uf[uf[r]!]!; uf[r] = h; r = h; }
       let seen = false;
       for (let s = 0; s < nr; s++) if (roots[s] === r) { seen = true; break; }
       if (!seen) roots[nr++] = r;
@@ -209,9 +225,10 @@ export function buildMergeTree(
       }
     }
     // add the cell to target and union the regions
-    cellsG.data[target]! += 1;
-    massG.data[target]! += d * cellVolume;
-    if (d > peakG.data[target]!) peakG.data[target] = d;
+    const cellsD = cellsG.data, massD = massG.data, peakD = peakG.data;
+    cellsD[target]! += 1;
+    massD[target]! += d * cellVolume;
+    if (d > peakD[target]!) peakD[target] = d;
     lowG.data[target] = d;
     labels[c] = target;
     let root = c;
@@ -219,13 +236,11 @@ export function buildMergeTree(
     size[c] = 1;
     for (let s = 0; s < nr; s++) {
       const r = roots[s]!;
-      const [big, small] = size[r]! >= size[root]! ? [r, root] : [root, r];
-      uf[small] = big;
-      size[big]! += size[small]!;
-      root = big;
+      if (size[r]! >= size[root]!) { uf[root] = r; size[r]! += size[root]!; root = r; }
+      else { uf[r] = root; size[root]! += size[r]!; }
     }
     compNode[root] = target;
-    if (onProgress && (m - p) % report === 0) onProgress(m - p, m);
+    if (onProgress && m - p === nextReport) { onProgress(m - p, m); nextReport += report; }
   }
 
   // judge the remaining regions at the floor; drop those that fail

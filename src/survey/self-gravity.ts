@@ -25,7 +25,7 @@
  * -(3/5) G M^2/R; coarse-grained to 13 cells across, within 1 %; the a^2 scaling holds.
  */
 import { G } from '../physics/constants.js';
-import { realForward3, halfSpectrumLength, halfLength, forwardZ, complexAxis, inverseZ } from '../grid/fft3.js';
+import { realForward3, halfSpectrumLength, halfLength, forwardZ, complexAxis } from '../grid/fft3.js';
 
 /** Mean inverse distance of two independent uniform points in the unit cube (box integral; value from memory, verified numerically in test/outside/self-gravity.test.ts). */
 export const UNIT_CUBE_MEAN_INVERSE_DISTANCE = 1.8823126444;
@@ -62,12 +62,12 @@ function greenSpectrum(g: number): Float64Array {
   return s;
 }
 
-const buffers = new Map<number, { padded: Float64Array; spec: Float64Array; phi: Float64Array }>();
+const buffers = new Map<number, { padded: Float64Array; spec: Float64Array }>();
 
 /**
  * Self-energy, erg, of masses (g) on a g^3 coarse grid (C order, g a power of two) of cells of
- * side a (cm), by isolated FFT convolution. Lines that are zero in the padded input, and lines
- * of the potential outside the g^3 corner, are not transformed.
+ * side a (cm), by isolated FFT convolution, summed in Fourier space (Parseval's theorem), so
+ * only the forward transform runs. Lines that are zero in the padded input are not transformed.
  */
 export function coarseGridSelfEnergy(mass: Float64Array, g: number, a: number): number {
   const n = 2 * g;
@@ -75,10 +75,10 @@ export function coarseGridSelfEnergy(mass: Float64Array, g: number, a: number): 
   const nh = halfLength(n);
   let buf = buffers.get(g);
   if (!buf) {
-    buf = { padded: new Float64Array(n * n * n), spec: new Float64Array(halfSpectrumLength(grid)), phi: new Float64Array(n * n * n) };
+    buf = { padded: new Float64Array(n * n * n), spec: new Float64Array(halfSpectrumLength(grid)) };
     buffers.set(g, buf);
   }
-  const { padded, spec, phi } = buf;
+  const { padded, spec } = buf;
   for (let i = 0; i < g; i++) for (let j = 0; j < g; j++) {
     const src = (i * g + j) * g;
     padded.set(mass.subarray(src, src + g), (i * n + j) * n);
@@ -87,22 +87,21 @@ export function coarseGridSelfEnergy(mass: Float64Array, g: number, a: number): 
   for (let i = 0; i < g; i++) forwardZ(padded, spec, grid, i * n, i * n + g);
   complexAxis(spec, grid, 1, false, 0, g * nh);
   complexAxis(spec, grid, 0, false);
+  // Parseval: sum_x m(x) (K * m)(x) = (1/N) sum_k K(k) |M(k)|^2 over the full spectrum; the kernel
+  // is even, so K is real, and the half spectrum counts the planes 0 < kz < n/2 twice
   const kern = greenSpectrum(g);
-  for (let p = 0; p < spec.length; p += 2) {
-    const re = spec[p]! * kern[p]! - spec[p + 1]! * kern[p + 1]!;
-    const im = spec[p]! * kern[p + 1]! + spec[p + 1]! * kern[p]!;
-    spec[p] = re;
-    spec[p + 1] = im;
-  }
-  complexAxis(spec, grid, 0, true);
-  complexAxis(spec, grid, 1, true, 0, g * nh);
-  for (let i = 0; i < g; i++) inverseZ(spec, phi, grid, i * n, i * n + g);
   let w = 0;
-  for (let i = 0; i < g; i++) for (let j = 0; j < g; j++) {
-    const b = (i * g + j) * g;
-    const q = (i * n + j) * n;
-    for (let l = 0; l < g; l++) w += mass[b + l]! * phi[q + l]!;
+  for (let row = 0; row < n * n; row++) {
+    const base = row * nh * 2;
+    let s = 0;
+    for (let l = 1; l < nh - 1; l++) {
+      const p = base + 2 * l;
+      s += kern[p]! * (spec[p]! * spec[p]! + spec[p + 1]! * spec[p + 1]!);
+    }
+    const p0 = base, p1 = base + 2 * (nh - 1);
+    w += 2 * s + kern[p0]! * (spec[p0]! * spec[p0]! + spec[p0 + 1]! * spec[p0 + 1]!) + kern[p1]! * (spec[p1]! * spec[p1]! + spec[p1 + 1]! * spec[p1 + 1]!);
   }
+  w /= n * n * n;
   return 0.5 * G.value * w / a;
 }
 
