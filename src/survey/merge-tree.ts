@@ -62,6 +62,11 @@ export function neighbourOffsets(connectivity: 6 | 26): Array<[number, number, n
 
 /** Indices of cells with density > floor, sorted by ascending density (stable LSD radix sort on float bits, O(N)). */
 export function sortCellsAbove(density: Float32Array, floor: number): Int32Array {
+  return sortCellsAboveWithKeys(density, floor).order;
+}
+
+/** sortCellsAbove, also returning the sorted densities' float bits (view them as a Float32Array). */
+function sortCellsAboveWithKeys(density: Float32Array, floor: number): { order: Int32Array; keys: Uint32Array } {
   const bits = new Uint32Array(density.buffer, density.byteOffset, density.length);
   let m = 0;
   for (let c = 0; c < density.length; c++) if (density[c]! > floor) m++;
@@ -86,7 +91,7 @@ export function sortCellsAbove(density: Float32Array, floor: number): Int32Array
     [idx, idx2] = [idx2, idx];
     [key, key2] = [key2, key];
   }
-  return idx;
+  return { order: idx, keys: key };
 }
 
 class Growable {
@@ -113,13 +118,16 @@ export function buildMergeTree(
   const { nx, ny, nz } = shape;
   const n = nx * ny * nz;
   if (density.length !== n) throw new RangeError(`density has ${density.length} values, shape holds ${n}`);
-  const order = sortCellsAbove(density, floor);
+  const { order, keys } = sortCellsAboveWithKeys(density, floor);
+  const sorted = new Float32Array(keys.buffer, keys.byteOffset, keys.length); // density[order[p]], read in sequence
   const m = order.length;
 
-  const uf = new Int32Array(n).fill(-1); // -1: not added yet; else parent in union-find
-  const size = new Int32Array(n);
-  const compNode = new Int32Array(n);
-  const labels = new Int32Array(n).fill(-1);
+  // union-find state per cell: 0 not added yet; p + 1 (> 0) parent cell p; -(t + 1) (< 0) a
+  // region's root cell whose top node is t. New cells and merged regions are linked under the
+  // first neighbouring root (path halving keeps the chains short); which cell is a root does
+  // not change the tree, only the regions do.
+  const st = new Int32Array(n);
+  const byRank = new Int32Array(m); // tentative node of the cell order[p]
 
   // tentative nodes
   const cellsG = new Growable(), massG = new Growable(), peakG = new Growable(), mergeG = new Growable(), lowG = new Growable();
@@ -138,10 +146,6 @@ export function buildMergeTree(
     alias[id] = id; parentT[id] = -1; hasKids[id] = 0; kids.push([]);
     cellsG.data[id] = 0; massG.data[id] = 0; peakG.data[id] = 0; mergeG.data[id] = 0; lowG.data[id] = Infinity;
     return id;
-  };
-  const find = (c: number): number => {
-    while (uf[c] !== c) { const p = uf[uf[c]!]!; uf[c] = p; c = p; }
-    return c;
   };
   const significant = (t: number, level: number): boolean =>
     hasKids[t] === 1 || (cellsG.data[t]! >= limits.minCells && massG.data[t]! >= limits.minMass && peakG.data[t]! >= (1 + limits.minContrast) * level);
@@ -169,7 +173,7 @@ export function buildMergeTree(
   let nextReport = report;
   for (let p = m - 1; p >= 0; p--) {
     const c = order[p]!;
-    const d = density[c]!;
+    const d = sorted[p]!;
     const i = (c / nyz) | 0;
     const rem = c - i * nyz;
     const j = (rem / nz) | 0;
@@ -182,10 +186,18 @@ export function buildMergeTree(
         if (a < 0 || a >= nx || b < 0 || b >= ny || e < 0 || e >= nz) continue;
       }
       const q = c + offFlat[o]!;
-      if (uf[q] === -1) continue;
+      if (st[q] === 0) continue;
       // find with path halving
       let r = q;
-      while (uf[r] !== r) { const h = uf[uf[r]!]!; uf[r] = h; r = h; }
+      for (;;) {
+        const a = st[r]!;
+        if (a < 0) break;
+        const up = a - 1;
+        const b = st[up]!;
+        if (b < 0) { r = up; break; }
+        st[r] = b;
+        r = b - 1;
+      }
       let seen = false;
       for (let s = 0; s < nr; s++) if (roots[s] === r) { seen = true; break; }
       if (!seen) roots[nr++] = r;
@@ -194,15 +206,15 @@ export function buildMergeTree(
     if (nr === 0) {
       target = newNode();
     } else if (nr === 1) {
-      target = compNode[roots[0]!]!;
+      target = (-st[roots[0]!]! - 1);
     } else {
       sig.length = 0;
-      for (let s = 0; s < nr; s++) { const t = compNode[roots[s]!]!; if (significant(t, d)) sig.push(t); }
+      for (let s = 0; s < nr; s++) { const t = (-st[roots[s]!]! - 1); if (significant(t, d)) sig.push(t); }
       if (sig.length >= 2) {
         target = newNode();
         hasKids[target] = 1;
         for (let s = 0; s < nr; s++) {
-          const t = compNode[roots[s]!]!;
+          const t = (-st[roots[s]!]! - 1);
           if (sig.includes(t)) {
             parentT[t] = target;
             mergeG.data[t] = d;
@@ -215,13 +227,13 @@ export function buildMergeTree(
       } else {
         if (sig.length === 1) target = sig[0]!;
         else {
-          target = compNode[roots[0]!]!;
+          target = (-st[roots[0]!]! - 1);
           for (let s = 1; s < nr; s++) {
-            const t = compNode[roots[s]!]!;
+            const t = (-st[roots[s]!]! - 1);
             if (peakG.data[t]! > peakG.data[target]! || (peakG.data[t] === peakG.data[target] && t < target)) target = t;
           }
         }
-        for (let s = 0; s < nr; s++) { const t = compNode[roots[s]!]!; if (t !== target) absorb(t, target); }
+        for (let s = 0; s < nr; s++) { const t = (-st[roots[s]!]! - 1); if (t !== target) absorb(t, target); }
       }
     }
     // add the cell to target and union the regions
@@ -230,25 +242,22 @@ export function buildMergeTree(
     massD[target]! += d * cellVolume;
     if (d > peakD[target]!) peakD[target] = d;
     lowG.data[target] = d;
-    labels[c] = target;
-    let root = c;
-    uf[c] = c;
-    size[c] = 1;
-    for (let s = 0; s < nr; s++) {
-      const r = roots[s]!;
-      if (size[r]! >= size[root]!) { uf[root] = r; size[r]! += size[root]!; root = r; }
-      else { uf[r] = root; size[root]! += size[r]!; }
+    byRank[p] = target;
+    if (nr === 0) st[c] = -(target + 1);
+    else {
+      const root = roots[0]!;
+      st[c] = root + 1;
+      for (let s = 1; s < nr; s++) st[roots[s]!] = root + 1;
+      st[root] = -(target + 1);
     }
-    compNode[root] = target;
     if (onProgress && m - p === nextReport) { onProgress(m - p, m); nextReport += report; }
   }
 
   // judge the remaining regions at the floor; drop those that fail
   const dropped = new Uint8Array(count);
-  for (let p = 0; p < m; p++) {
-    const c = order[p]!;
-    if (uf[c] !== c) continue;
-    const t = compNode[c]!;
+  for (let c = 0; c < n; c++) {
+    if (st[c]! >= 0) continue;
+    const t = -st[c]! - 1;
     mergeG.data[t] = lowG.data[t]!;
     if (!significant(t, floor)) dropped[t] = 1;
   }
@@ -260,12 +269,10 @@ export function buildMergeTree(
     return r;
   };
   const newId = new Int32Array(count).fill(-1);
+  const labels = new Int32Array(n).fill(-1);
   let kept = 0;
   for (let t = 0; t < count; t++) if (alias[t] === t && !dropped[t]) newId[t] = kept++;
-  for (let p = 0; p < m; p++) {
-    const c = order[p]!;
-    labels[c] = newId[resolve(labels[c]!)]!;
-  }
+  for (let p = 0; p < m; p++) labels[order[p]!] = newId[resolve(byRank[p]!)]!;
   const parent = new Int32Array(kept);
   const cells = new Float64Array(kept), peak = new Float64Array(kept), mergeDensity = new Float64Array(kept);
   const children: number[][] = [];
