@@ -1,0 +1,68 @@
+import { describe, it, expect } from 'vitest';
+import { buildMergeTree } from '../src/survey/merge-tree.js';
+import { nodeCellLists } from '../src/survey/node-moments.js';
+import { nodeGravity, PARENT_CELLS } from '../src/survey/node-gravity.js';
+import { adaptiveSelfEnergy, coarseGrain, coarseSelfEnergy } from '../src/survey/self-gravity.js';
+
+/** A 48^3 cube: a broad Gaussian envelope holding a ring of Gaussian cores (nested regions wider than PARENT_CELLS). */
+function nestedCube(n: number): Float32Array {
+  const d = new Float32Array(n ** 3);
+  const cores: Array<[number, number, number, number, number]> = [];
+  for (let a = 0; a < 6; a++) {
+    const phi = (2 * Math.PI * a) / 6;
+    cores.push([n / 2 + 14 * Math.cos(phi), n / 2 + 14 * Math.sin(phi), n / 2 + (a % 2 ? 4 : -4), 2 + (a % 3), 3 + a]);
+  }
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) for (let k = 0; k < n; k++) {
+    const x = i + 0.5 - n / 2, y = j + 0.5 - n / 2, z = k + 0.5 - n / 2;
+    let v = Math.exp(-(x * x + y * y + z * z) / (2 * 12 ** 2));
+    for (const [cx, cy, cz, s, amp] of cores) {
+      const u = i + 0.5 - cx, w = j + 0.5 - cy, e = k + 0.5 - cz;
+      v += amp * Math.exp(-(u * u + w * w + e * e) / (2 * s * s));
+    }
+    d[(i * n + j) * n + k] = 1e-20 * v;
+  }
+  return d;
+}
+
+describe('node gravity', () => {
+  it('builds each parent from its children exactly as a direct deposit of all its cells would', async () => {
+    const n = 48, dx = 3e16, gravityCells = 32, tol = 0.01;
+    const shape = { nx: n, ny: n, nz: n };
+    const density = nestedCube(n);
+    const tree = buildMergeTree(density, shape, 1e-21, 6, { minCells: 8, minContrast: 0.2, minMass: 0 }, dx ** 3);
+    const lists = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots);
+    const got = await nodeGravity(tree, lists, density, shape, dx, gravityCells, tol, null);
+    const cellsOf = (t: number) => lists.cells.subarray(lists.start[t], lists.end[t]);
+    const extent = (t: number) => {
+      const c = coarseGrain(density, shape, dx, cellsOf(t), 1, 1); // factor 1: g is the next power of two of the extent
+      return c.g;
+    };
+    let parents = 0;
+    for (let t = 0; t < tree.count; t++) {
+      // reference: every grid deposited afresh from the node's full cell list (the plain method)
+      const kids = tree.children[t]!;
+      const idx = cellsOf(t);
+      let i0 = Infinity, i1 = -1, j0 = Infinity, j1 = -1, k0 = Infinity, k1 = -1;
+      for (const c of idx) {
+        const i = Math.floor(c / (n * n)), j = Math.floor(c / n) % n, k = c % n;
+        i0 = Math.min(i0, i); i1 = Math.max(i1, i); j0 = Math.min(j0, j); j1 = Math.max(j1, j); k0 = Math.min(k0, k); k1 = Math.max(k1, k);
+      }
+      const b = Math.max(i1 - i0, j1 - j0, k1 - k0) + 1;
+      let f = 1;
+      while (f < Math.ceil(b / PARENT_CELLS)) f *= 2;
+      if (kids.length === 0 || f === 1) {
+        const e = adaptiveSelfEnergy(coarseGrain(density, shape, dx, idx, gravityCells), tol);
+        expect(got.energy[t]).toBe(e.energy);
+        continue;
+      }
+      parents++;
+      let w = coarseSelfEnergy(coarseGrain(density, shape, dx, idx, gravityCells, f));
+      for (const c of kids) w += got.energy[c]! - coarseSelfEnergy(coarseGrain(density, shape, dx, cellsOf(c), gravityCells, f));
+      // same sums in another order: equal to rounding
+      expect(Math.abs(got.energy[t]! - w)).toBeLessThan(1e-12 * Math.abs(w));
+      expect(got.factor[t]).toBe(f);
+    }
+    expect(parents).toBeGreaterThan(0);
+    expect(extent(tree.roots[0]!)).toBeGreaterThan(PARENT_CELLS);
+  });
+});
