@@ -84,7 +84,9 @@ async function main() {
   const r = spawnSync(process.execPath, args, { cwd: ROOT, stdio: ['ignore', 'ignore', 'pipe'] });
   const wall = Number(process.hrtime.bigint() - t0) / 1e9;
   if (r.status !== 0) throw new Error(`plan failed (exit ${r.status}): ${r.stderr.toString().trim().split('\n').slice(-3).join(' | ')}`);
-  const timings = existsSync(path.join(out, 'summary.json')) ? JSON.parse(readFileSync(path.join(out, 'summary.json'), 'utf8')).timings_s ?? {} : {};
+  const summary = existsSync(path.join(out, 'summary.json')) ? JSON.parse(readFileSync(path.join(out, 'summary.json'), 'utf8')) : {};
+  const timings = summary.timings_s ?? {};
+  const h = summary.hierarchy ?? {};
 
   const main = new Map();
   const workers = new Map();
@@ -101,6 +103,7 @@ async function main() {
   if (Object.keys(timings).length) {
     L.push('Stage timings (summary.json timings_s, s): ' + Object.entries(timings).map(([k, v]) => `${k} ${Number(v).toFixed(2)}`).join(', '), '');
   }
+  if (h.nodes !== undefined) L.push(`Tree: ${h.nodes} nodes, max depth ${h.max_depth ?? '?'}, ${h.fragment_candidates ?? '?'} fragment candidates`, '');
   const table = (title, m, totalMs) => {
     const busy = [...m].filter(([k]) => !SPECIAL.has(k) || k === '(garbage collector)').reduce((s, [, v]) => s + v, 0);
     L.push(`${title}: profiled ${(totalMs / 1000).toFixed(2)} s, busy ${(busy / 1000).toFixed(2)} s, idle ${(((m.get('(idle)') ?? 0)) / 1000).toFixed(2)} s`, '');
@@ -117,7 +120,7 @@ async function main() {
   mkdirSync(resultsDir, { recursive: true });
   const date = new Date().toISOString().replace(/[:.]/g, '-');
   const sorted = (m) => [...m].sort((a, b) => b[1] - a[1]).map(([k, v]) => ({ fn: k, self_ms: +v.toFixed(1) }));
-  writeFileSync(path.join(resultsDir, `profile-${date}.json`), JSON.stringify({ cells: o.cells, preset: o.preset, wall_s: wall, timings_s: timings, main: sorted(main), workers: sorted(workers), worker_threads: nWorkers }, null, 1) + '\n');
+  writeFileSync(path.join(resultsDir, `profile-${date}.json`), JSON.stringify({ cells: o.cells, preset: o.preset, wall_s: wall, timings_s: timings, hierarchy: h, main: sorted(main), workers: sorted(workers), worker_threads: nWorkers }, null, 1) + '\n');
   if (!o.dir) rmSync(dir, { recursive: true, force: true });
   else rmSync(out, { recursive: true, force: true });
 }
