@@ -60,14 +60,22 @@ describe('gridResolution', () => {
     expect(r.jeansCellsMin * maxJ).toBeCloseTo(1, 5);
   });
 
-  it('per-cell temperature with a barotropic EOS: T = T_cell (1 + (rho/rho_c)^(gamma-1)) (common practice form)', () => {
+  it('a per-cell temperature is the gas temperature: the EOS is not applied to it again', () => {
     const g = { nx: 1, ny: 1, nz: 3, boxSize: 1e16 };
     const rho = Float32Array.of(1e-14, 1e-13, 1e-12);
     const t = Float32Array.of(10, 20, 10);
     const eos = { kind: 'barotropic', criticalDensity: 1e-13, gamma: 1.4 } as const;
     const r = gridResolution(g, rho, t, 2.33, eos, 4);
+    for (let i = 0; i < 3; i++) expect(r.jeansNumber[i]! / jOf(1e16, rho[i]!, t[i]!)).toBeCloseTo(1, 5);
+  });
+
+  it('a scalar base temperature follows the barotropic EOS: T = T0 (1 + (rho/rho_c)^(gamma-1)) (common practice form)', () => {
+    const g = { nx: 1, ny: 1, nz: 3, boxSize: 1e16 };
+    const rho = Float32Array.of(1e-14, 1e-13, 1e-12);
+    const eos = { kind: 'barotropic', criticalDensity: 1e-13, gamma: 1.4 } as const;
+    const r = gridResolution(g, rho, 10, 2.33, eos, 4);
     for (let i = 0; i < 3; i++) {
-      const tt = t[i]! * (1 + (rho[i]! / 1e-13) ** 0.4);
+      const tt = 10 * (1 + (rho[i]! / 1e-13) ** 0.4);
       expect(r.jeansNumber[i]! / jOf(1e16, rho[i]!, tt)).toBeCloseTo(1, 5);
     }
   });

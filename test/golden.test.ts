@@ -1,5 +1,7 @@
 // Golden checksums of a 32^3 plan, recorded on 2026-12-02 BEFORE the performance work of the
 // "performance and scale" issue (test/data/golden-32.json). Optimisations must not change a byte.
+// Re-recorded once on 2026-12-02 for a bug fix, not a speed change: the grid Jeans numbers applied the
+// barotropic EOS to a temperature field that already held it (only summary.json changed).
 // To re-record deliberately (a change of results, not of speed): FRAGPLAN_RECORD_GOLDEN=1 npx vitest run test/golden.test.ts
 import { describe, it, expect } from 'vitest';
 import { mkdtempSync, readFileSync, writeFileSync, readdirSync } from 'node:fs';

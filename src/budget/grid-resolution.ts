@@ -12,7 +12,7 @@ import { jeansNumber } from '../physics/resolution.js';
 import { soundSpeed } from '../physics/sound-speed.js';
 import type { GridResolution } from './types.js';
 
-/** Per-cell Jeans number map, 1/max J, unresolved mass fraction (J > 1/N_J) and cells needing refinement. */
+/** Per-cell Jeans number map (temperature: per-cell gas temperature in K, or a base T0 that follows the EOS), 1/max J, unresolved mass fraction (J > 1/N_J) and cells needing refinement. */
 export function gridResolution(grid: Grid3, density: Float32Array, temperature: number | Float32Array, mu: number, eos: Eos, cellsPerJeansLength: number): GridResolution {
   const n = cellCount(grid);
   if (density.length !== n) throw new RangeError(`density has ${density.length} values, the grid ${n}`);
@@ -29,7 +29,9 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
   const j1 = jeansNumber(dx, soundSpeed(1, mu), 1);
   const scalarT = typeof temperature === 'number' ? temperature : 0;
   const field = typeof temperature === 'number' ? null : temperature;
-  const baro = eos.kind === 'barotropic';
+  // A per-cell temperature is the gas temperature (the generator already applied the EOS);
+  // a scalar is the base temperature T0 and follows the EOS here.
+  const baro = eos.kind === 'barotropic' && field === null;
   const jUniform = field === null && !baro ? j1 / Math.sqrt(scalarT) : 0;
   for (let i = 0; i < n; i++) {
     const rho = density[i]!;

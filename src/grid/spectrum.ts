@@ -12,6 +12,8 @@
  */
 import type { Grid3 } from './grid3.js';
 import { halfLength, realForward3, signedWavenumber } from './fft3.js';
+import type { WorkerPool } from './pool.js';
+import { realForward3Parallel, sharedSpectrum } from './fft3-parallel.js';
 
 /** A shell-averaged spectrum: integer shells 1..kMax with mean |k|, mean mode power, shell sum and mode count. */
 export interface ShellSpectrum {
@@ -69,6 +71,22 @@ export function vectorPowerSpectrum(components: readonly ArrayLike<number>[], g:
   const shells = Math.floor(Math.min(g.nx, g.ny, g.nz) / 2) + 1;
   const sumK = new Float64Array(shells), energy = new Float64Array(shells), count = new Float64Array(shells);
   components.forEach((f, a) => accumulate(realForward3(f, g), g, sumK, energy, count, a === 0));
+  return finish(sumK, energy, count);
+}
+
+/** vectorPowerSpectrum with the transforms over a worker pool (same result; fields copied to shared memory if needed). */
+export async function vectorPowerSpectrumParallel(pool: WorkerPool | null, components: readonly Float32Array[], g: Grid3): Promise<ShellSpectrum> {
+  if (!pool || pool.size < 2) return vectorPowerSpectrum(components, g);
+  const shells = Math.floor(Math.min(g.nx, g.ny, g.nz) / 2) + 1;
+  const sumK = new Float64Array(shells), energy = new Float64Array(shells), count = new Float64Array(shells);
+  const spec = sharedSpectrum(g);
+  for (let a = 0; a < components.length; a++) {
+    const f = components[a]!;
+    const shared = f.buffer instanceof SharedArrayBuffer ? f : new Float32Array(new SharedArrayBuffer(f.length * 4));
+    if (shared !== f) shared.set(f);
+    await realForward3Parallel(pool, shared, g, spec);
+    accumulate(spec, g, sumK, energy, count, a === 0);
+  }
   return finish(sumK, energy, count);
 }
 

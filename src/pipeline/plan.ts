@@ -129,7 +129,9 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
         resolution: resolutionSummary(budget, gridRes), hierarchy: hierarchySummary(survey), cost: costSummary(budget),
         ...(ensemble ? { ensemble } : {}), warnings, timings,
       });
-    const plots = buildPlots(cloud, survey, gridRes, nj);
+    t = performance.now();
+    const plots = await buildPlots(cloud, survey, gridRes, nj, undefined, pool);
+    timings.plots = (performance.now() - t) / 1000;
     const tree = treeJson(survey);
     const csv = fragmentsCsv(survey);
     const stable = withoutTimings(summaryWithTimes());

@@ -129,7 +129,7 @@ export async function runSurvey(target: string, opts: SurveyCommandOptions): Pro
     resolution: gridResolutionSummary(gridRes, nj), hierarchy: hierarchySummary(survey),
     warnings: [], timings: { load: tLoad, survey: tSurvey },
   });
-  const plots = buildPlots(null, survey, gridRes, nj, { grid, density });
+  const plots = await buildPlots(null, survey, gridRes, nj, { grid, density });
   mkdirSync(runDir, { recursive: true });
   const files: string[] = [];
   const put = (name: string, data: string): void => {

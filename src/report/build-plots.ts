@@ -5,7 +5,8 @@
 import type { Cloud } from '../generate/cloud.js';
 import type { Grid3 } from '../grid/grid3.js';
 import { histogram } from '../grid/histogram.js';
-import { vectorPowerSpectrum } from '../grid/spectrum.js';
+import { vectorPowerSpectrumParallel } from '../grid/spectrum.js';
+import type { WorkerPool } from '../grid/pool.js';
 import type { SurveyResult } from '../survey/types.js';
 import type { GridResolution } from '../budget/types.js';
 import { toUnit } from '../physics/units.js';
@@ -41,10 +42,10 @@ export function densityPdf(density: Float32Array, mask: Uint8Array | null, sigma
 }
 
 /** Shell-averaged velocity power spectrum with the input slope. */
-export function velocitySpectrum(cloud: Cloud): VelocitySpectrumPlot | null {
+export async function velocitySpectrum(cloud: Cloud, pool: WorkerPool | null = null): Promise<VelocitySpectrumPlot | null> {
   const s = cloud.summary;
   if (s.velocitySpectrumIndex === null) return null;
-  const sp = vectorPowerSpectrum(cloud.velocity, cloud.grid);
+  const sp = await vectorPowerSpectrumParallel(pool, cloud.velocity, cloud.grid);
   const k: number[] = [], power: number[] = [];
   for (let i = 0; i < sp.k.length; i++) if (sp.power[i]! > 0) { k.push(sp.k[i]!); power.push(sp.power[i]!); }
   return { k, power, input_index: s.velocitySpectrumIndex, k_min: s.kMin, k_max: s.kMax };
@@ -81,12 +82,12 @@ export function treePlot(survey: SurveyResult): TreePlotNode[] {
 }
 
 /** All plot data; for a foreign cube pass cloud = null and the cube as `cube`. */
-export function buildPlots(cloud: Cloud | null, survey: SurveyResult, gridRes: GridResolution, cellsPerJeansLength: number, cube?: { grid: Grid3; density: Float32Array }): PlotData {
+export async function buildPlots(cloud: Cloud | null, survey: SurveyResult, gridRes: GridResolution, cellsPerJeansLength: number, cube?: { grid: Grid3; density: Float32Array }, pool: WorkerPool | null = null): Promise<PlotData> {
   const density = cloud ? cloud.density : cube!.density;
   return {
     schema: 'fragplan.plots/1',
     density_pdf: densityPdf(density, cloud ? cloud.inside : null, cloud ? cloud.summary.sigmaS : null),
-    velocity_spectrum: cloud ? velocitySpectrum(cloud) : null,
+    velocity_spectrum: cloud ? await velocitySpectrum(cloud, pool) : null,
     jeans_histogram: jeansHistogram(gridRes, cellsPerJeansLength),
     mass_spectrum: massSpectrumPlot(survey),
     tree: treePlot(survey),
