@@ -318,7 +318,10 @@ async function main() {
   const t512 = rows.find((r) => r.cells === 512)?.fragplan;
   if (t512?.peak_rss_kib) L.push(`- 512^3 fragplan peak ${fmtMem(t512.peak_rss_kib)} (target <= 16 GiB: ${gibOf(t512.peak_rss_kib) <= 16 ? 'met' : 'NOT met'})`);
   const perCell = rows.filter((r) => r.fragplan?.ns_per_cell).map((r) => r.fragplan.ns_per_cell);
-  if (perCell.length > 1) L.push(`- fragplan time per cell, largest / smallest grid: ${fmt(perCell[perCell.length - 1] / perCell[0])} (flat = 1; N log N growth alone gives about log(N_max^3)/log(N_min^3))`);
+  if (perCell.length > 1) {
+    const steps = rows.filter((r) => r.fragplan?.ns_per_cell).map((r, i, a) => (i === 0 ? null : `${a[i - 1].cells}->${r.cells}: x${fmt(r.fragplan.ns_per_cell / a[i - 1].fragplan.ns_per_cell)}`)).filter(Boolean);
+    L.push(`- fragplan time per cell from one size to the next: ${steps.join(', ')} (flat = x1.00; N log N alone gives about x1.1-1.2 per doubling; below ~128^3 process start-up dominates)`);
+  }
   const blasList = machine.python_libs?.blas?.map((b) => `${b.internal_api ? `${b.internal_api} ` : ''}${b.version ?? ''}${b.architecture ? ` (kernel ${b.architecture})` : ''}`.trim());
   const blas = blasList ? [...new Set(blasList)].join('; ') : '';
   L.push(`- Machine: ${machine.nproc} cores (${machine.cpu_model}), ${machine.mem_total_gib} GiB; Node ${machine.node}; numpy ${machine.python_libs?.numpy ?? '?'}, scipy ${machine.python_libs?.scipy ?? '?'}${blas ? `, BLAS ${blas}` : ''}${unset.length ? ` (unset for the script: ${unset.join(', ')})` : ''}`);
