@@ -64,14 +64,44 @@ export function forwardZ(field: ArrayLike<number>, spec: Float64Array, g: Grid3,
   const nh = halfLength(nz);
   const p = plan(nz);
   const input = new Float64Array(nz);
-  const out = p.createComplexArray() as number[];
+  const out = new Float64Array(2 * nz);
+  const m = nh * 2;
   for (let line = start; line < end; line++) {
     const base = line * nz;
     for (let k = 0; k < nz; k++) input[k] = field[base + k]!;
     p.realTransform(out, input);
-    const sb = line * nh * 2;
-    for (let k = 0; k < nh * 2; k++) spec[sb + k] = out[k]!;
+    spec.set(m === out.length ? out : out.subarray(0, m), line * m);
   }
+}
+
+/** Lines gathered at once by complexAxis: consecutive kz at one (j) or (i), so each cache line is used fully. */
+const BLOCK = 16;
+/** Padding (Float64 values) between block lines. */
+const PAD = 8;
+
+/**
+ * Transforms of lines that hold only zeros (of either sign), keyed by the input's exact bits.
+ * The output is a pure function of those bits, so reusing it gives the bytes fft.js would give.
+ * Spectra of band-limited fields (k_max below Nyquist) are mostly such lines.
+ */
+interface ZeroCache { bits: Int32Array[]; outs: Float64Array[] }
+const zeroCaches = new Map<string, ZeroCache>();
+const ZERO_CACHE_MAX = 16;
+
+/** True when every value of line is +0 or -0. */
+function allZero(line: Float64Array): boolean {
+  for (let q = 0; q < line.length; q++) if (line[q] !== 0) return false;
+  return true;
+}
+
+/** Index of the cached line whose bits equal bits[off, off + len), or -1. */
+function findCached(cache: ZeroCache, bits: Int32Array, off: number, len: number): number {
+  outer: for (let e = 0; e < cache.bits.length; e++) {
+    const s = cache.bits[e]!;
+    for (let q = 0; q < len; q++) if (s[q] !== bits[off + q]) continue outer;
+    return e;
+  }
+  return -1;
 }
 
 /** Complex transform along axis 0 (x) or 1 (y) of lines [start, end) of the half spectrum, in place. */
@@ -81,23 +111,50 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
   const n = axis === 0 ? nx : ny;
   const stride = axis === 0 ? ny * nh * 2 : nh * 2;
   const p = plan(n);
-  const buf = p.createComplexArray() as number[];
-  const out = p.createComplexArray() as number[];
-  for (let line = start; line < end; line++) {
-    // line enumerates (j, kz) for axis 0 and (i, kz) for axis 1
+  const n2 = 2 * n;
+  // block line b holds line b contiguously (interleaved complex, length 2n); lines are LS apart,
+  // padded by one cache line so that a block's lines do not all map to the same L1 cache set
+  const LS = n2 + PAD;
+  const inBlock = new Float64Array(BLOCK * LS);
+  const outBlock = new Float64Array(BLOCK * LS);
+  const ins = Array.from({ length: BLOCK }, (_, b) => inBlock.subarray(b * LS, b * LS + n2));
+  const outs = Array.from({ length: BLOCK }, (_, b) => outBlock.subarray(b * LS, b * LS + n2));
+  const inBits = new Int32Array(inBlock.buffer);
+  const cacheKey = `${n}:${inverse ? 1 : 0}`;
+  let cache = zeroCaches.get(cacheKey);
+  if (!cache) zeroCaches.set(cacheKey, (cache = { bits: [], outs: [] }));
+  let line = start;
+  while (line < end) {
+    // line enumerates (j, kz) for axis 0 and (i, kz) for axis 1; a block shares j (or i)
     const outer = Math.floor(line / nh);
-    const kz = line - outer * nh;
-    const base = axis === 0 ? (outer * nh + kz) * 2 : (outer * ny * nh + kz) * 2;
+    const kz0 = line - outer * nh;
+    const count = Math.min(BLOCK, end - line, nh - kz0);
+    const base = axis === 0 ? (outer * nh + kz0) * 2 : (outer * ny * nh + kz0) * 2;
+    const w = 2 * count;
     for (let a = 0, o = base; a < n; a++, o += stride) {
-      buf[2 * a] = spec[o]!;
-      buf[2 * a + 1] = spec[o + 1]!;
+      for (let q = 0, t = 2 * a; q < w; q += 2, t += LS) {
+        inBlock[t] = spec[o + q]!;
+        inBlock[t + 1] = spec[o + q + 1]!;
+      }
     }
-    if (inverse) p.inverseTransform(out, buf);
-    else p.transform(out, buf);
+    for (let b = 0; b < count; b++) {
+      const src = ins[b]!, dst = outs[b]!;
+      const e = findCached(cache, inBits, 2 * b * LS, 2 * n2);
+      if (e >= 0) { dst.set(cache.outs[e]!); continue; }
+      if (inverse) p.inverseTransform(dst, src);
+      else p.transform(dst, src);
+      if (cache.bits.length < ZERO_CACHE_MAX && allZero(src)) {
+        cache.bits.push(inBits.slice(2 * b * LS, 2 * b * LS + 2 * n2));
+        cache.outs.push(dst.slice());
+      }
+    }
     for (let a = 0, o = base; a < n; a++, o += stride) {
-      spec[o] = out[2 * a]!;
-      spec[o + 1] = out[2 * a + 1]!;
+      for (let q = 0, t = 2 * a; q < w; q += 2, t += LS) {
+        spec[o + q] = outBlock[t]!;
+        spec[o + q + 1] = outBlock[t + 1]!;
+      }
     }
+    line += count;
   }
 }
 
@@ -109,22 +166,40 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
   const { nz } = g;
   const nh = halfLength(nz);
   const p = plan(nz);
-  const z = p.createComplexArray() as number[];
-  const out = p.createComplexArray() as number[];
+  const z = new Float64Array(2 * nz);
+  const out = new Float64Array(2 * nz);
   for (let line = start; line < end; line += 2) {
     const a = line * nh * 2;
     const hasB = line + 1 < end;
     const b = (line + 1) * nh * 2;
-    for (let k = 0; k < nz; k++) {
-      // Hermitian extension: X[k] = conj(X[nz - k]) for k > nz/2
-      const src = k < nh ? k : nz - k;
-      const sgn = k < nh ? 1 : -1;
-      const ar = spec[a + 2 * src]!;
-      const ai = sgn * spec[a + 2 * src + 1]!;
-      const br = hasB ? spec[b + 2 * src]! : 0;
-      const bi = hasB ? sgn * spec[b + 2 * src + 1]! : 0;
-      z[2 * k] = ar - bi;
-      z[2 * k + 1] = ai + br;
+    // Hermitian extension: X[k] = conj(X[nz - k]) for k > nz/2 (same operations as k < nh with sign -1)
+    if (hasB) {
+      for (let k = 0; k < nh; k++) {
+        const ar = spec[a + 2 * k]!;
+        const ai = 1 * spec[a + 2 * k + 1]!;
+        const br = spec[b + 2 * k]!;
+        const bi = 1 * spec[b + 2 * k + 1]!;
+        z[2 * k] = ar - bi;
+        z[2 * k + 1] = ai + br;
+      }
+      for (let k = nh; k < nz; k++) {
+        const src = nz - k;
+        const ar = spec[a + 2 * src]!;
+        const ai = -1 * spec[a + 2 * src + 1]!;
+        const br = spec[b + 2 * src]!;
+        const bi = -1 * spec[b + 2 * src + 1]!;
+        z[2 * k] = ar - bi;
+        z[2 * k + 1] = ai + br;
+      }
+    } else {
+      for (let k = 0; k < nz; k++) {
+        const src = k < nh ? k : nz - k;
+        const sgn = k < nh ? 1 : -1;
+        const ar = spec[a + 2 * src]!;
+        const ai = sgn * spec[a + 2 * src + 1]!;
+        z[2 * k] = ar - 0;
+        z[2 * k + 1] = ai + 0;
+      }
     }
     p.inverseTransform(out, z);
     const fa = line * nz;
