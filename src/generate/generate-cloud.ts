@@ -23,16 +23,16 @@ import { soundSpeed } from '../physics/sound-speed.js';
 import { M_SUN } from '../physics/constants.js';
 import { sigmaForVirialParameter } from '../physics/virial.js';
 import { forcingParameterForWeight, lognormalWidth } from '../physics/turbulence.js';
-import { eosTemperature, type Eos } from '../physics/eos.js';
+import type { Eos } from '../physics/eos.js';
 import { resolveEnvelope } from './envelope.js';
 import { cloudDimensions } from './dimensions.js';
-import { gridEnvelope } from './cell-kernels.js';
+import { fillTemperature, gridEnvelope } from './cell-kernels.js';
 import { applyLognormalStructure, scaleCloud } from './structure.js';
 import { drawClumps, drawFractal } from './clumps.js';
 import { depositBlobs } from './deposit.js';
 import { applyAzimuthalMode, axisBasis } from './rotation.js';
 import { addRigidRotation, momentOfInertia, rawTurbulence, removeNetAngularMomentum, removeNetMomentum, scaleVelocity } from './velocity.js';
-import { cloudMassCentre, rmsSpeed } from './moments.js';
+import { cloudMass, rmsSpeed, scaleCloudMassCentre } from './moments.js';
 import { magneticSetup } from './magnetic.js';
 import { summarise } from './summary.js';
 
@@ -160,11 +160,10 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
   if (rot && rot.m_mode > 0 && rot.amplitude > 0) applyAzimuthalMode(g, density, inside, rot.axis, rot.m_mode, rot.amplitude);
 
   // 4. renormalise the cloud to its mass
-  const before = cloudMassCentre(g, density, inside).mass;
+  const before = cloudMass(g, density, inside);
   const massCorrection = env.mass / before;
-  scaleCloud(density, inside, massCorrection);
   notes.push(`mass correction: the gridded cloud density was multiplied by ${massCorrection.toFixed(6)} so that the cloud holds exactly ${(env.mass / M_SUN.value).toPrecision(6)} Msun`);
-  const { centre } = cloudMassCentre(g, density, inside);
+  const { centre } = scaleCloudMassCentre(g, density, inside, massCorrection);
 
   // 5. turbulence
   if (c.turbulence && sigma3D !== null) {
@@ -172,9 +171,11 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
     let done = 0;
     const p = { key, index: c.turbulence.spectrum_index, kMin: c.turbulence.k_min, kMax: kMaxV!, zeta };
     await rawTurbulence(g, pool, p, [specs[0]!, specs[1]!, specs[2]!], velocity, () => st.update(++done));
-    removeNetMomentum(g, density, inside, velocity);
-    if (c.turbulence.zero_angular_momentum) removeNetAngularMomentum(g, density, inside, velocity, centre);
-    const rms = rmsSpeed(g, density, inside, velocity);
+    let rms = removeNetMomentum(g, density, inside, velocity);
+    if (c.turbulence.zero_angular_momentum) {
+      removeNetAngularMomentum(g, density, inside, velocity, centre);
+      rms = rmsSpeed(g, density, inside, velocity);
+    }
     if (rms > 0) scaleVelocity(inside, velocity, sigma3D / rms);
     else notes.push('turbulence: the k range holds no mode on this grid; the velocity is zero');
     st.update(5); st.stop();
@@ -195,7 +196,8 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
 
   // 7. temperature: cloud T (or the barotropic T(rho)) inside, ambient T outside
   const eos: Eos = c.eos.kind === 'barotropic' ? { kind: 'barotropic', criticalDensity: c.eos.critical_density, gamma: c.eos.gamma } : { kind: 'isothermal' };
-  for (let i = 0; i < N; i++) temperature[i] = inside[i] ? eosTemperature(eos, c.temperature, density[i]!) : dims.ambientTemperature;
+  if (pool) await pool.runRanges('genTemperature', N, [temperature, density, inside, eos, c.temperature, dims.ambientTemperature]);
+  else fillTemperature(0, N, temperature, density, inside, eos, c.temperature, dims.ambientTemperature);
 
   // 8. magnetic field (uniform, cell-centred)
   const mag = magneticSetup(config, env);

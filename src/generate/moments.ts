@@ -36,6 +36,38 @@ export function cloudMassCentre(g: Grid3, density: Float32Array, inside: Uint8Ar
   return { mass: m * dv, centre: m > 0 ? [mx / m, my / m, mz / m] : [0, 0, 0] };
 }
 
+/** Mass (g) of the cells with inside = 1: the mass of cloudMassCentre, same sum in the same order. */
+export function cloudMass(g: Grid3, density: Float32Array, inside: Uint8Array): number {
+  let m = 0;
+  for (let c = 0; c < density.length; c++) if (inside[c]) m += density[c]!;
+  return m * cellVolume(g);
+}
+
+/**
+ * Multiplies cloud cells (inside = 1) by factor and returns cloudMassCentre of the result
+ * (g, cm), in one pass: the sums read the stored Float32 values in cell order.
+ */
+export function scaleCloudMassCentre(g: Grid3, density: Float32Array, inside: Uint8Array, factor: number): { mass: number; centre: [number, number, number] } {
+  const { nx, ny, nz, boxSize: L } = g;
+  const xs = axisCentres(nx, L), ys = axisCentres(ny, L), zs = axisCentres(nz, L);
+  let m = 0, mx = 0, my = 0, mz = 0;
+  for (let i = 0, c = 0; i < nx; i++) {
+    for (let j = 0; j < ny; j++) {
+      for (let k = 0; k < nz; k++, c++) {
+        if (!inside[c]) continue;
+        const rho = Math.fround(density[c]! * factor);
+        density[c] = rho;
+        m += rho;
+        mx += rho * xs[i]!;
+        my += rho * ys[j]!;
+        mz += rho * zs[k]!;
+      }
+    }
+  }
+  const dv = cellVolume(g);
+  return { mass: m * dv, centre: m > 0 ? [mx / m, my / m, mz / m] : [0, 0, 0] };
+}
+
 /** Sum of density x volume over all cells (cloud and ambient), g. */
 export function totalMass(g: Grid3, density: Float32Array): number {
   let s = 0;

@@ -15,7 +15,7 @@ import { cellVolume } from '../grid/grid3.js';
 import type { WorkerPool } from '../grid/pool.js';
 import { realInverse3Parallel } from '../grid/fft3-parallel.js';
 import { fillVelocityModes, type VelocityModeParams } from './modes.js';
-import { angularMoments, axisCentres, solve3, velocityMoments } from './moments.js';
+import { angularMoments, axisCentres, solve3 } from './moments.js';
 
 type Vec3Field = readonly [Float32Array, Float32Array, Float32Array];
 
@@ -30,16 +30,38 @@ export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: Veloci
   }
 }
 
-/** Zeroes v outside the cloud and subtracts the mass-weighted mean velocity of the cloud (cm/s). */
-export function removeNetMomentum(g: Grid3, density: Float32Array, inside: Uint8Array, v: Vec3Field): void {
-  for (let c = 0; c < inside.length; c++) if (!inside[c]) { v[0][c] = 0; v[1][c] = 0; v[2][c] = 0; }
-  const mom = velocityMoments(g, density, inside, v);
-  if (!(mom.mass > 0)) return;
-  const mean = mom.momentum.map((p) => p / mom.mass);
-  for (let a = 0; a < 3; a++) {
-    const f = v[a]!, m = mean[a]!;
-    for (let c = 0; c < f.length; c++) if (inside[c]) f[c] = f[c]! - m;
+/**
+ * Zeroes v outside the cloud and subtracts the mass-weighted mean velocity of the cloud (cm/s).
+ * Returns the mass-weighted rms speed (cm/s) of the result, as rmsSpeed would compute it.
+ * One pass zeroes and sums (the sums of velocityMoments, same order), one subtracts and sums again.
+ */
+export function removeNetMomentum(g: Grid3, density: Float32Array, inside: Uint8Array, v: Vec3Field): number {
+  const [vx, vy, vz] = v;
+  let m = 0, px = 0, py = 0, pz = 0;
+  for (let c = 0; c < inside.length; c++) {
+    if (!inside[c]) { vx[c] = 0; vy[c] = 0; vz[c] = 0; continue; }
+    const rho = density[c]!;
+    m += rho;
+    px += rho * vx[c]!;
+    py += rho * vy[c]!;
+    pz += rho * vz[c]!;
   }
+  const dv = cellVolume(g);
+  const mass = m * dv;
+  if (!(mass > 0)) return 0;
+  const mx = (px * dv) / mass, my = (py * dv) / mass, mz = (pz * dv) / mass;
+  let m2 = 0, e = 0;
+  for (let c = 0; c < inside.length; c++) {
+    if (!inside[c]) continue;
+    // the Float32 values that are stored, as velocityMoments would read them back
+    const a = Math.fround(vx[c]! - mx), b = Math.fround(vy[c]! - my), d = Math.fround(vz[c]! - mz);
+    vx[c] = a; vy[c] = b; vz[c] = d;
+    const rho = density[c]!;
+    m2 += rho;
+    e += rho * (a * a + b * b + d * d);
+  }
+  const mass2 = m2 * dv;
+  return mass2 > 0 ? Math.sqrt((e * dv) / mass2) : 0;
 }
 
 /** Adds omega x (r - centre) to v in cloud cells; omega in s^-1 (vector), centre in cm. */
@@ -71,9 +93,10 @@ export function removeNetAngularMomentum(g: Grid3, density: Float32Array, inside
 
 /** Multiplies v by factor in cloud cells. */
 export function scaleVelocity(inside: Uint8Array, v: Vec3Field, factor: number): void {
-  for (let a = 0; a < 3; a++) {
-    const f = v[a]!;
-    for (let c = 0; c < f.length; c++) if (inside[c]) f[c] = f[c]! * factor;
+  const [vx, vy, vz] = v;
+  for (let c = 0; c < inside.length; c++) {
+    if (!inside[c]) continue;
+    vx[c] = vx[c]! * factor; vy[c] = vy[c]! * factor; vz[c] = vz[c]! * factor;
   }
 }
 

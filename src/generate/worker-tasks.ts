@@ -4,7 +4,7 @@
  * conventions of the kernels are in modes.ts and cell-kernels.ts.
  */
 import { fillLogDensityModes, fillVelocityModes } from './modes.js';
-import { applyLognormal, gridEnvelope } from './cell-kernels.js';
+import { applyLognormal, fillTemperature, gridEnvelope } from './cell-kernels.js';
 
 /** Task name -> function, for the worker registry. */
 export const GENERATE_TASKS = {
@@ -12,4 +12,5 @@ export const GENERATE_TASKS = {
   genLogDensityModes: fillLogDensityModes,
   genEnvelope: gridEnvelope,
   genLognormal: applyLognormal,
+  genTemperature: fillTemperature,
 } as const;
