@@ -26,7 +26,7 @@ export async function applyLognormalStructure(
   if (pool) await pool.runRanges('genLogDensityModes', g.nx, [spec, g, p]);
   else fillLogDensityModes(0, g.nx, spec, g, p);
   onStep();
-  await realInverse3Parallel(pool, spec, g, scratch);
+  await realInverse3Parallel(pool, spec, g, scratch, p.kMax);
   onStep();
   let n = 0, s1 = 0;
   for (let c = 0; c < inside.length; c++) if (inside[c]) { n++; s1 += scratch[c]!; }

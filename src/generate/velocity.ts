@@ -25,7 +25,7 @@ export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: Veloci
   else fillVelocityModes(0, g.nx, specs[0], specs[1], specs[2], g, p);
   onStep();
   for (let a = 0; a < 3; a++) {
-    await realInverse3Parallel(pool, specs[a]!, g, v[a]!);
+    await realInverse3Parallel(pool, specs[a]!, g, v[a]!, p.kMax);
     onStep();
   }
 }

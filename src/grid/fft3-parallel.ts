@@ -22,12 +22,15 @@ export async function realForward3Parallel(pool: WorkerPool | null, field: Float
   return spec;
 }
 
-/** Inverse real 3D FFT of spec into field (normalised; overwrites spec), over the pool. */
-export async function realInverse3Parallel(pool: WorkerPool | null, spec: Float64Array, g: Grid3, field: Float32Array): Promise<void> {
-  if (!pool || pool.size < 2) return realInverse3(spec, g, field);
+/**
+ * Inverse real 3D FFT of spec into field (normalised; overwrites spec), over the pool.
+ * `band` (cycles per box): every mode with |ky| or kz above it is +0 (see complexAxis in fft3.ts).
+ */
+export async function realInverse3Parallel(pool: WorkerPool | null, spec: Float64Array, g: Grid3, field: Float32Array, band = Infinity): Promise<void> {
+  if (!pool || pool.size < 2) return realInverse3(spec, g, field, band);
   assertFftShape(g);
-  await pool.runRanges('fftAxis', axisLineCount(g, 0), [spec, g, 0, true]);
-  await pool.runRanges('fftAxis', axisLineCount(g, 1), [spec, g, 1, true]);
+  await pool.runRanges('fftAxisBand', axisLineCount(g, 0), [spec, g, 0, true, band]);
+  await pool.runRanges('fftAxisBand', axisLineCount(g, 1), [spec, g, 1, true, band]);
   // inverseZ pairs lines; keep ranges even-aligned so pairing (and bytes) match the single-thread run
   const n = zLineCount(g);
   const half = Math.floor(n / 2 / pool.size) * 2;

@@ -104,8 +104,25 @@ function findCached(cache: ZeroCache, bits: Int32Array, off: number, len: number
   return -1;
 }
 
-/** Complex transform along axis 0 (x) or 1 (y) of lines [start, end) of the half spectrum, in place. */
-export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, start = 0, end = axisLineCount(g, axis)): void {
+/** Transform (plan p, direction inverse) of the line whose every complex value is (re, im). */
+function constantLineTransform(p: FFT, n: number, inverse: boolean, re: number, im: number): Float64Array {
+  const src = new Float64Array(2 * n);
+  for (let a = 0; a < n; a++) { src[2 * a] = re; src[2 * a + 1] = im; }
+  const dst = new Float64Array(2 * n);
+  if (inverse) p.inverseTransform(dst, src);
+  else p.transform(dst, src);
+  return dst;
+}
+
+/**
+ * Complex transform along axis 0 (x) or 1 (y) of lines [start, end) of the half spectrum, in place.
+ * `band` (optional, cycles per box) promises that every mode with |ky| > band or kz > band is +0
+ * before the axis-0 pass (as modes.ts leaves a band-limited spectrum). Then the axis-0 lines with
+ * |ky| > band or kz > band, and the axis-1 lines with kz > band that such an axis-0 pass (same
+ * direction, same band) produced, are not read: their known input is transformed once and
+ * written. Same bytes as without the hint; pass it only when the promise holds.
+ */
+export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, start = 0, end = axisLineCount(g, axis), band = Infinity): void {
   const { nx, ny } = g;
   const nh = halfLength(g.nz);
   const n = axis === 0 ? nx : ny;
@@ -123,6 +140,11 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
   const cacheKey = `${n}:${inverse ? 1 : 0}`;
   let cache = zeroCaches.get(cacheKey);
   if (!cache) zeroCaches.set(cacheKey, (cache = { bits: [], outs: [] }));
+  // known lines (see `band`): axis 0 input all +0; axis 1 input constant, the x-transform of +0 at index i
+  const hinted = band < Infinity;
+  const zeroX = hinted ? constantLineTransform(plan(nx), nx, inverse, 0, 0) : null;
+  const knownOut = hinted && axis === 0 ? constantLineTransform(p, n, inverse, 0, 0) : null;
+  const knownByBits = new Map<string, Float64Array>();
   let line = start;
   while (line < end) {
     // line enumerates (j, kz) for axis 0 and (i, kz) for axis 1; a block shares j (or i)
@@ -131,13 +153,33 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
     const count = Math.min(BLOCK, end - line, nh - kz0);
     const base = axis === 0 ? (outer * nh + kz0) * 2 : (outer * ny * nh + kz0) * 2;
     const w = 2 * count;
-    for (let a = 0, o = base; a < n; a++, o += stride) {
-      for (let q = 0, t = 2 * a; q < w; q += 2, t += LS) {
-        inBlock[t] = spec[o + q]!;
-        inBlock[t + 1] = spec[o + q + 1]!;
+    // lines kz >= firstKnown of this block have a known input (count: none)
+    let firstKnown = count;
+    let known: Float64Array | null = null;
+    if (hinted) {
+      if (axis === 0 && Math.abs(signedWavenumber(outer, ny)) > band) firstKnown = 0;
+      else firstKnown = Math.max(0, Math.min(count, Math.floor(band) + 1 - kz0));
+      if (firstKnown < count) {
+        if (axis === 0) known = knownOut;
+        else {
+          const re = zeroX![2 * outer]!, im = zeroX![2 * outer + 1]!;
+          const key = `${re}:${im}:${Object.is(re, -0)}:${Object.is(im, -0)}`;
+          known = knownByBits.get(key) ?? null;
+          if (!known) knownByBits.set(key, (known = constantLineTransform(p, n, inverse, re, im)));
+        }
       }
     }
-    for (let b = 0; b < count; b++) {
+    if (firstKnown > 0) {
+      const wg = 2 * firstKnown;
+      for (let a = 0, o = base; a < n; a++, o += stride) {
+        for (let q = 0, t = 2 * a; q < wg; q += 2, t += LS) {
+          inBlock[t] = spec[o + q]!;
+          inBlock[t + 1] = spec[o + q + 1]!;
+        }
+      }
+    }
+    for (let b = firstKnown; b < count; b++) outs[b]!.set(known!);
+    for (let b = 0; b < firstKnown; b++) {
       const src = ins[b]!, dst = outs[b]!;
       const e = findCached(cache, inBits, 2 * b * LS, 2 * n2);
       if (e >= 0) { dst.set(cache.outs[e]!); continue; }
@@ -220,10 +262,13 @@ export function realForward3(field: ArrayLike<number>, g: Grid3, spec: Float64Ar
   return spec;
 }
 
-/** Inverse real 3D FFT of a half spectrum into `field` (normalised by N); overwrites `spec`; single thread. */
-export function realInverse3(spec: Float64Array, g: Grid3, field: Float32Array | Float64Array): void {
+/**
+ * Inverse real 3D FFT of a half spectrum into `field` (normalised by N); overwrites `spec`; single
+ * thread. `band` (cycles per box): every mode with |ky| or kz above it is +0 (see complexAxis).
+ */
+export function realInverse3(spec: Float64Array, g: Grid3, field: Float32Array | Float64Array, band = Infinity): void {
   assertFftShape(g);
-  complexAxis(spec, g, 0, true);
-  complexAxis(spec, g, 1, true);
+  complexAxis(spec, g, 0, true, 0, axisLineCount(g, 0), band);
+  complexAxis(spec, g, 1, true, 0, axisLineCount(g, 1), band);
   inverseZ(spec, field, g);
 }
