@@ -4,7 +4,6 @@
  */
 import type { Cloud } from '../generate/cloud.js';
 import type { Grid3 } from '../grid/grid3.js';
-import { histogram } from '../grid/histogram.js';
 import { vectorPowerSpectrumParallel } from '../grid/spectrum.js';
 import type { WorkerPool } from '../grid/pool.js';
 import type { SurveyResult } from '../survey/types.js';
@@ -15,28 +14,42 @@ import type { DensityPdfPlot, JeansHistogramPlot, MassSpectrumPlot, PlotData, Tr
 const PDF_BINS = 60;
 const JEANS_BINS = 50;
 
-/** Volume-weighted PDF of s = ln(rho/rho0) over the masked cells (all cells when mask is null). */
+/** Volume-weighted PDF of s = ln(rho/rho0) over the masked cells (all cells when mask is null); two tight passes, no per-cell allocation. */
 export function densityPdf(density: Float32Array, mask: Uint8Array | null, sigmaExpected: number | null): DensityPdfPlot | null {
-  let n = 0, sum = 0;
-  for (let i = 0; i < density.length; i++) if (!mask || mask[i]) { n++; sum += density[i]!; }
+  let n = 0, sum = 0, lo = Infinity, hi = -Infinity;
+  for (let i = 0; i < density.length; i++) {
+    if (mask && !mask[i]) continue;
+    const r = density[i]!;
+    if (!(r > 0)) continue;
+    n++;
+    sum += r;
+    if (r < lo) lo = r;
+    if (r > hi) hi = r;
+  }
   if (n < 2 || !(sum > 0)) return null;
   const rho0 = sum / n;
-  const s = new Float64Array(n);
-  let m = 0, mean = 0;
-  for (let i = 0; i < density.length; i++) if (!mask || mask[i]) { const v = Math.log(Math.max(density[i]!, 1e-300) / rho0); s[m++] = v; mean += v; }
-  mean /= n;
-  let varS = 0;
-  for (let i = 0; i < n; i++) varS += (s[i]! - mean) ** 2;
-  const sigma = Math.sqrt(varS / (n - 1));
-  let lo = Infinity, hi = -Infinity;
-  for (let i = 0; i < n; i++) { if (s[i]! < lo) lo = s[i]!; if (s[i]! > hi) hi = s[i]!; }
-  if (!(hi > lo)) { lo -= 0.5; hi += 0.5; }
-  const h = histogram(s, { bins: PDF_BINS, min: lo, max: hi });
-  const width = (hi - lo) / PDF_BINS;
+  let sLo = Math.log(lo / rho0), sHi = Math.log(hi / rho0);
+  if (!(sHi > sLo)) { sLo -= 0.5; sHi += 0.5; }
+  const width = (sHi - sLo) / PDF_BINS;
+  const counts = new Float64Array(PDF_BINS);
+  const lnRho0 = Math.log(rho0);
+  let m1 = 0, m2 = 0;
+  for (let i = 0; i < density.length; i++) {
+    if (mask && !mask[i]) continue;
+    const r = density[i]!;
+    if (!(r > 0)) continue;
+    const v = Math.log(r) - lnRho0;
+    m1 += v;
+    m2 += v * v;
+    const b = Math.min(PDF_BINS - 1, Math.max(0, Math.floor((v - sLo) / width)));
+    counts[b]! += 1;
+  }
+  const mean = m1 / n;
+  const sigma = Math.sqrt(Math.max(0, (m2 - n * mean * mean) / (n - 1)));
   const centres: number[] = [], pdf: number[] = [];
   for (let b = 0; b < PDF_BINS; b++) {
-    centres.push(0.5 * (h.edges[b]! + h.edges[b + 1]!));
-    pdf.push(h.counts[b]! / (n * width));
+    centres.push(sLo + (b + 0.5) * width);
+    pdf.push(counts[b]! / (n * width));
   }
   return { s: centres, pdf, rho0_gcc: rho0, sigma_s_measured: sigma, sigma_s_expected: sigmaExpected };
 }
@@ -51,13 +64,31 @@ export async function velocitySpectrum(cloud: Cloud, pool: WorkerPool | null = n
   return { k, power, input_index: s.velocitySpectrumIndex, k_min: s.kMin, k_max: s.kMax };
 }
 
-/** Histogram of log10 J over all cells with the 1/N_J limit. */
+/** Histogram of log10 J over the cells with J > 0, with the 1/N_J limit; two tight passes. */
 export function jeansHistogram(g: GridResolution, cellsPerJeansLength: number): JeansHistogramPlot | null {
-  const h = histogram(g.jeansNumber, { bins: JEANS_BINS, log: true });
-  if (h.total === 0) return null;
+  const j = g.jeansNumber;
+  let lo = Infinity, hi = -Infinity;
+  for (let i = 0; i < j.length; i++) {
+    const v = j[i]!;
+    if (!(v > 0) || v === Infinity) continue;
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  if (!(hi >= lo)) return null;
+  let l0 = Math.log10(lo), l1 = Math.log10(hi);
+  if (!(l1 > l0)) { l0 -= 0.5; l1 += 0.5; }
+  const width = (l1 - l0) / JEANS_BINS;
+  const counts = new Float64Array(JEANS_BINS);
+  const inv = 1 / (width * Math.LN10);
+  for (let i = 0; i < j.length; i++) {
+    const v = j[i]!;
+    if (!(v > 0) || v === Infinity) continue;
+    const b = Math.min(JEANS_BINS - 1, Math.max(0, Math.floor((Math.log(v) - l0 * Math.LN10) * inv)));
+    counts[b]! += 1;
+  }
   return {
-    log10_j_edges: Array.from(h.edges, (e) => Math.log10(e)),
-    counts: Array.from(h.counts),
+    log10_j_edges: Array.from({ length: JEANS_BINS + 1 }, (_, b) => l0 + b * width),
+    counts: Array.from(counts),
     limit: 1 / cellsPerJeansLength,
     cells_per_jeans_length: cellsPerJeansLength,
   };

@@ -1,0 +1,52 @@
+import { describe, it, expect } from 'vitest';
+import { densityPdf, jeansHistogram } from '../src/report/build-plots.js';
+import { pythonJson } from './helpers/python.js';
+
+function lognormalSample(n: number, sigma: number, seed = 3): Float32Array {
+  const a = new Float32Array(n);
+  let s = seed >>> 0;
+  const u = (): number => { s = (Math.imul(s, 1664525) + 1013904223) >>> 0; return (s + 0.5) / 2 ** 32; };
+  for (let i = 0; i < n; i++) a[i] = 1e-20 * Math.exp(sigma * Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u()));
+  return a;
+}
+
+describe('plot data', () => {
+  it('densityPdf of an empty or single-cell field is null', () => {
+    expect(densityPdf(new Float32Array(0), null, null)).toBeNull();
+    expect(densityPdf(Float32Array.of(1), null, null)).toBeNull();
+  });
+
+  it('densityPdf integrates to 1 and its width matches numpy on the same cells', () => {
+    const rho = lognormalSample(20000, 1.5);
+    const p = densityPdf(rho, null, 1.5)!;
+    const dw = p.s[1]! - p.s[0]!;
+    expect(p.pdf.reduce((x, y) => x + y, 0) * dw).toBeCloseTo(1, 10);
+    // numpy reference (general-purpose library): std of ln(rho / mean rho), ddof = 1
+    const ref = pythonJson<{ sd: number; mean: number }>(
+      'import sys,json,numpy as np\nr=np.array(json.loads(sys.stdin.read()),dtype=np.float64)\ns=np.log(r/r.mean())\nprint(json.dumps({"sd":float(s.std(ddof=1)),"mean":float(r.mean())}))',
+      JSON.stringify(Array.from(rho)),
+    );
+    expect(p.sigma_s_measured).toBeCloseTo(ref.sd, 6);
+    expect(p.rho0_gcc / ref.mean).toBeCloseTo(1, 6);
+  });
+
+  it('densityPdf honours the mask', () => {
+    const rho = Float32Array.of(1, 2, 1000, 4);
+    const p = densityPdf(rho, Uint8Array.of(1, 1, 0, 1), null)!;
+    expect(p.rho0_gcc).toBeCloseTo(7 / 3, 10);
+  });
+
+  it('jeansHistogram counts every positive cell once, matching numpy.histogram', () => {
+    const j = lognormalSample(5000, 1, 9).map((x) => x * 1e19);
+    const h = jeansHistogram({ jeansNumber: j, jeansCellsMin: 1, unresolvedMassFraction: 0, cellsNeedingRefinement: 0 }, 4)!;
+    expect(h.counts.reduce((x, y) => x + y, 0)).toBe(5000);
+    expect(h.limit).toBe(0.25);
+    const ref = pythonJson<number[]>(
+      'import sys,json,numpy as np\nd=json.loads(sys.stdin.read())\nc,_=np.histogram(np.log10(np.array(d["j"])),bins=np.array(d["e"]))\nprint(json.dumps([int(x) for x in c]))',
+      JSON.stringify({ j: Array.from(j), e: h.log10_j_edges }),
+    );
+    // bin edges can differ by one ulp between log(x)/ln10 and log10(x): allow a handful of cells to move one bin
+    const moved = ref.reduce((acc, c, b) => acc + Math.abs(c - h.counts[b]!), 0);
+    expect(moved).toBeLessThanOrEqual(6);
+  });
+});
