@@ -12,9 +12,11 @@ import { eosTemperature, type Eos } from '../physics/eos.js';
 
 /**
  * Writes the envelope density (g/cm^3) at cell centres of x-rows [start, end): inside cells get
- * the profile and inside = 1; the rest get the ambient density and inside = 0.
+ * the profile and inside = 1; the rest get the ambient density and inside = 0. Returns the number
+ * of inside cells written.
  */
-export function gridEnvelope(start: number, end: number, p: EnvelopeParams, g: Grid3, ambient: number, density: Float32Array, inside: Uint8Array): void {
+export function gridEnvelope(start: number, end: number, p: EnvelopeParams, g: Grid3, ambient: number, density: Float32Array, inside: Uint8Array): number {
+  let count = 0;
   const { ny, nz, boxSize: L } = g;
   const zs = new Float64Array(nz);
   for (let k = 0; k < nz; k++) zs[k] = cellCentre(k, nz, L);
@@ -43,6 +45,7 @@ export function gridEnvelope(start: number, end: number, p: EnvelopeParams, g: G
           } else {
             density[base + k] = rho;
             inside[base + k] = 1;
+            count++;
           }
         }
         continue;
@@ -52,6 +55,7 @@ export function gridEnvelope(start: number, end: number, p: EnvelopeParams, g: G
         if (rho > 0) {
           density[base + k] = rho;
           inside[base + k] = 1;
+          count++;
         } else {
           density[base + k] = ambient;
           inside[base + k] = 0;
@@ -59,6 +63,7 @@ export function gridEnvelope(start: number, end: number, p: EnvelopeParams, g: G
       }
     }
   }
+  return count;
 }
 
 /** Multiplies inside cells [start, end) of density by exp((s - mean) * scale - shift); dimensionless s. */

@@ -110,11 +110,11 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
   let st = progress.stage('cloud: envelope', 1);
   const density = field();
   const inside = shared ? new Uint8Array(new SharedArrayBuffer(N)) : new Uint8Array(N);
-  if (pool) await pool.runRanges('genEnvelope', g.nx, [env.params, g, dims.ambientDensity, density, inside]);
-  else gridEnvelope(0, g.nx, env.params, g, dims.ambientDensity, density, inside);
+  // cell counts are integers: summing the workers' counts is exact
+  const insideCount = pool
+    ? (await pool.runRanges<number>('genEnvelope', g.nx, [env.params, g, dims.ambientDensity, density, inside])).reduce((a, b) => a + b, 0)
+    : gridEnvelope(0, g.nx, env.params, g, dims.ambientDensity, density, inside);
   st.update(1); st.stop();
-  let insideCount = 0;
-  for (let i = 0; i < N; i++) insideCount += inside[i]!;
   if (insideCount === 0) throw new InputError(`grid.cells: the cloud covers no cell centre at ${cells}^3 (box ${(g.boxSize / dims.radius).toFixed(1)} cloud radii); use more cells or a smaller box`);
   if (dims.extent > g.boxSize * (1 + 1e-12)) notes.push(`the box (grid.box_size) is smaller than the cloud's extent: the cloud is cut at the box faces and its mass put in the part that fits`);
 

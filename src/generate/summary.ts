@@ -27,7 +27,6 @@ import { jeansLength, jeansMass } from '../physics/jeans.js';
 import { freeFallTime } from '../physics/free-fall.js';
 import { energyRatio, thermalEnergy, virialParameter } from '../physics/virial.js';
 import { alfvenSpeed, plasmaBeta } from '../physics/magnetic.js';
-import { rmsSpeed, totalMass } from './moments.js';
 import { momentOfInertia } from './velocity.js';
 import { axisBasis } from './rotation.js';
 
@@ -68,10 +67,21 @@ export function summarise(x: SummaryInput): CloudSummary {
   const cs = soundSpeed(c.temperature, c.mu);
   const M = env.mass;
   const R = env.params.radius;
-  const sigma3D = rmsSpeed(g, density, inside, velocity);
+  // one pass for the sums of rmsSpeed, sum rho T over the cloud and totalMass (each in cell order, as those functions do)
+  const [vx, vy, vz] = velocity;
+  let m = 0, e = 0, mt = 0, all = 0;
+  for (let i = 0; i < density.length; i++) {
+    const rho = density[i]!;
+    all += rho;
+    if (!inside[i]) continue;
+    const a = vx[i]!, b = vy[i]!, d = vz[i]!;
+    m += rho;
+    e += rho * (a * a + b * b + d * d);
+    mt += rho * temperature[i]!;
+  }
+  const dv = cellVolume(g);
+  const sigma3D = m * dv > 0 ? Math.sqrt((e * dv) / (m * dv)) : 0;
   const sigma1D = sigma3D / Math.sqrt(3);
-  let mt = 0;
-  for (let i = 0; i < density.length; i++) if (inside[i]) mt += density[i]! * temperature[i]!;
   const eTh = thermalEnergy(mt * cellVolume(g), soundSpeed(1, c.mu));
   const W = env.gravitationalEnergy;
   let eRot = 0;
@@ -104,7 +114,7 @@ export function summarise(x: SummaryInput): CloudSummary {
     jeansLength: jeansLength(cs, dims.meanDensity),
     jeansConvention: conv,
     freeFallTime: freeFallTime(dims.meanDensity),
-    massOnGrid: totalMass(g, density),
+    massOnGrid: all * dv,
     massCorrection: x.massCorrection,
     ambientDensity: dims.ambientDensity,
     ambientTemperature: dims.ambientTemperature,
