@@ -176,7 +176,10 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
       removeNetAngularMomentum(g, density, inside, velocity, centre);
       rms = rmsSpeed(g, density, inside, velocity);
     }
-    if (rms > 0) scaleVelocity(inside, velocity, sigma3D / rms);
+    if (rms > 0) {
+      if (pool) await pool.runRanges('genScaleVelocity', N, [inside, velocity[0], velocity[1], velocity[2], sigma3D / rms]);
+      else scaleVelocity(inside, velocity, sigma3D / rms);
+    }
     else notes.push('turbulence: the k range holds no mode on this grid; the velocity is zero');
     st.update(5); st.stop();
   }

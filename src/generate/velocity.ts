@@ -93,8 +93,12 @@ export function removeNetAngularMomentum(g: Grid3, density: Float32Array, inside
 
 /** Multiplies v by factor in cloud cells. */
 export function scaleVelocity(inside: Uint8Array, v: Vec3Field, factor: number): void {
-  const [vx, vy, vz] = v;
-  for (let c = 0; c < inside.length; c++) {
+  scaleVelocityCells(0, inside.length, inside, v[0], v[1], v[2], factor);
+}
+
+/** Multiplies cells [start, end) of vx, vy, vz by factor where inside = 1 (a worker task: per cell, split-independent). */
+export function scaleVelocityCells(start: number, end: number, inside: Uint8Array, vx: Float32Array, vy: Float32Array, vz: Float32Array, factor: number): void {
+  for (let c = start; c < end; c++) {
     if (!inside[c]) continue;
     vx[c] = vx[c]! * factor; vy[c] = vy[c]! * factor; vz[c] = vz[c]! * factor;
   }

@@ -5,6 +5,7 @@
  */
 import { fillLogDensityModes, fillVelocityModes } from './modes.js';
 import { applyLognormal, fillTemperature, gridEnvelope } from './cell-kernels.js';
+import { scaleVelocityCells } from './velocity.js';
 
 /** Task name -> function, for the worker registry. */
 export const GENERATE_TASKS = {
@@ -13,4 +14,5 @@ export const GENERATE_TASKS = {
   genEnvelope: gridEnvelope,
   genLognormal: applyLognormal,
   genTemperature: fillTemperature,
+  genScaleVelocity: scaleVelocityCells,
 } as const;
