@@ -1,13 +1,16 @@
 // Builds the command-line tool, its worker script and the viewer into dist/ with esbuild.
 // Run by `npm install` (prepare), `npm test` (pretest) and `npm run build`.
 import { build } from 'esbuild';
-import { mkdir, copyFile } from 'node:fs/promises';
+import { mkdir, copyFile, rm } from 'node:fs/promises';
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import path from 'node:path';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const r = (p) => path.join(root, p);
+
+// start clean so stale chunks never pile up
+await rm(r('dist'), { recursive: true, force: true });
 
 await build({
   entryPoints: { cli: r('src/cli.ts'), index: r('src/index.ts'), worker: r('src/worker.ts') },
