@@ -1,4 +1,5 @@
 /**
+ * Source: scipy.ndimage.label (general-purpose reference library).
  * Connected regions of the merge tree against scipy.ndimage.label on the same cube
  * (scipy, the general-purpose reference library; Debian's python3-scipy).
  */

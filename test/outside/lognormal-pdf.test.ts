@@ -1,3 +1,4 @@
+// Source: scipy (general-purpose reference library) and the published lognormal form below.
 // Lognormal volume-weighted density PDF of supersonic turbulence (Vazquez-Semadeni 1994; Padoan,
 // Nordlund & Jones 1997): s = ln(rho/rho0) Gaussian, mean -sigma^2/2 (mass-weighted +sigma^2/2).
 // Reference: scipy.special.erfc and scipy.stats.norm.sf.

@@ -1,4 +1,5 @@
 /**
+ * Source: the VTK file-format specification (Kitware), read with Python xml.etree and numpy.
  * Outside check: the .vti file follows the VTK XML ImageData format (VTK file formats, "VTK XML
  * formats", Kitware): Python's xml.etree parses its XML part, WholeExtent/Origin/Spacing say the
  * declared grid, and numpy decodes the appended raw payload (UInt64 byte count, then the values,
