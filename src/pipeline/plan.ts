@@ -105,6 +105,7 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     const timings: Record<string, number> = {};
     const { cloud, survey, seconds } = await generateAndSurvey(config, pool, progress);
     Object.assign(timings, seconds);
+    for (const [k, v] of Object.entries(survey.timings)) timings[`survey_${k}`] = v;
 
     let t = performance.now();
     const nj = config.budget.grid.cells_per_jeans_length;

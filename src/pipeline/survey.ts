@@ -127,7 +127,7 @@ export async function runSurvey(target: string, opts: SurveyCommandOptions): Pro
     name: path.basename(runDir), toolVersion: TOOL_VERSION, seed: null, configSha256: null,
     grid: { ...gridBlock(grid, volumeIntegral(grid, density)), source_file: sourceFile, source_sha256: sha, temperature_k: typeof temperature === 'number' ? temperature : null, mu },
     resolution: gridResolutionSummary(gridRes, nj), hierarchy: hierarchySummary(survey),
-    warnings: [], timings: { load: tLoad, survey: tSurvey },
+    warnings: [], timings: { load: tLoad, survey: tSurvey, ...Object.fromEntries(Object.entries(survey.timings).map(([k, v]) => [`survey_${k}`, v])) },
   });
   const plots = await buildPlots(null, survey, gridRes, nj, { grid, density });
   mkdirSync(runDir, { recursive: true });
