@@ -16,6 +16,7 @@ import { parse as parseYaml } from 'yaml';
 import { readIcManifest, readIcCloud } from '../export/manifest-read.js';
 import type { Grid3 } from '../grid/grid3.js';
 import { volumeIntegral } from '../grid/grid3.js';
+import { createPool, defaultWorkerCount } from '../grid/pool.js';
 import { surveyCloud } from '../survey/survey-cloud.js';
 import { loadCube, loadVelocityCubes, surveyOptionsFromConfig, hierarchySummary, treeJson, fragmentsCsv } from '../survey/index.js';
 import { gridResolution, gridResolutionSummary, eosFromConfig } from '../budget/index.js';
@@ -118,7 +119,14 @@ export async function runSurvey(target: string, opts: SurveyCommandOptions): Pro
   assertRunDirUsable(runDir, opts.force);
   const options = surveyOptionsFromConfig(config, info);
   const t1 = performance.now();
-  const survey = await surveyCloud({ grid, density, velocity, magnetic, temperature, mu, eos: eosFromConfig(config) }, options, progress, null);
+  const workers = config.grid.workers ?? defaultWorkerCount();
+  const pool = workers > 1 ? createPool(workers) : null;
+  let survey;
+  try {
+    survey = await surveyCloud({ grid, density, velocity, magnetic, temperature, mu, eos: eosFromConfig(config) }, options, progress, pool);
+  } finally {
+    await pool?.close();
+  }
   const tSurvey = (performance.now() - t1) / 1000;
   const nj = config.budget.grid.cells_per_jeans_length;
   const gridRes = gridResolution(grid, density, temperature, mu, eosFromConfig(config), nj);
