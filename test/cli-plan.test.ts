@@ -143,3 +143,17 @@ describe('budget and plan agree', () => {
     expect(compared).toBeGreaterThan(10);
   });
 });
+
+describe('a bound region below its mean-density Jeans mass', () => {
+  it('is flagged in the warnings (a near-critical Bonnor–Ebert core: M/M_J ~ 0.6 at its mean density, Bonnor 1956)', () => {
+    const out = path.join(tmp, 'be');
+    const r = fragplan(['plan', 'presets/be-core.yaml', '--cells', '32', '--out', out, '--quiet']);
+    expect(r.status).toBe(0);
+    const tree = JSON.parse(readFileSync(path.join(out, 'tree.json'), 'utf8'));
+    const s = JSON.parse(readFileSync(path.join(out, 'summary.json'), 'utf8'));
+    const roots = (tree.nodes as Array<{ id: number; parent: number; bound: boolean; unstable: boolean }>).filter((n) => n.parent === -1);
+    const flagged = roots.filter((n) => n.bound && !n.unstable);
+    expect(flagged.length).toBeGreaterThan(0);
+    for (const n of flagged) expect((s.warnings as string[]).some((w) => w.startsWith(`region #${n.id} `) && /bound but below its Jeans mass/.test(w))).toBe(true);
+  });
+});

@@ -33,6 +33,7 @@ import { silentProgress, type ProgressSink } from '../progress.js';
 import { assertFits } from './memory-guard.js';
 import { assertRunDirUsable, defaultRunDir } from './run-dir.js';
 import { TOOL_VERSION } from '../version.js';
+import { toUnit } from '../physics/units.js';
 
 /** Options of a plan run (command-line overrides of the config). */
 export interface PlanOptions {
@@ -90,6 +91,18 @@ export function budgetForConfig(config: Config): BudgetResult {
   return analyticBudget(config, budgetCloud(config));
 }
 
+/**
+ * Warnings for root regions that are bound (E_th + E_kin + E_mag + W < 0) yet below their Jeans mass
+ * at their mean density: centrally condensed clouds (a Bonnor–Ebert sphere near critical has
+ * M/M_J ~ 0.6 at its mean density) can be bound without passing the mean-density Jeans test.
+ */
+export function boundButStableWarnings(survey: SurveyResult): string[] {
+  return survey.roots
+    .map((id) => survey.nodes[id]!)
+    .filter((n) => n.bound && !n.unstable)
+    .map((n) => `region #${n.id} (${toUnit(n.mass, 'Msun').toPrecision(3)} Msun) is gravitationally bound but below its Jeans mass at its mean density (${toUnit(n.jeansMass, 'Msun').toPrecision(3)} Msun): centrally condensed clouds can collapse from the centre without passing the mean-density Jeans test; read its bound flag and energies in tree.json`);
+}
+
 /** Runs the whole plan: generate, survey, budget, write every output. */
 export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<PlanResult> {
   const progress = opts.progress ?? silentProgress;
@@ -122,7 +135,7 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       timings.ensemble = (performance.now() - t) / 1000;
     }
 
-    const warnings = [...cloud.summary.notes, ...budget.warnings];
+    const warnings = [...cloud.summary.notes, ...budget.warnings, ...boundButStableWarnings(survey)];
     const summaryWithTimes = (): Summary =>
       buildSummary({
         name: loaded.name, toolVersion: TOOL_VERSION, seed: config.seed, configSha256: loaded.sha256,
