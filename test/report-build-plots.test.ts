@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { densityPdf, jeansHistogram } from '../src/report/build-plots.js';
+import { densityPdf, jeansHistogram, blockMean } from '../src/report/build-plots.js';
 import { pythonJson } from './helpers/python.js';
 
 function lognormalSample(n: number, sigma: number, seed = 3): Float32Array {
@@ -48,5 +48,19 @@ describe('plot data', () => {
     // bin edges can differ by one ulp between log(x)/ln10 and log10(x): allow a handful of cells to move one bin
     const moved = ref.reduce((acc, c, b) => acc + Math.abs(c - h.counts[b]!), 0);
     expect(moved).toBeLessThanOrEqual(6);
+  });
+});
+
+describe('block mean for the velocity spectrum', () => {
+  it('conserves the mean and averages each block', () => {
+    const n = 4;
+    const f = new Float32Array(n ** 3).map((_, i) => i);
+    const m = blockMean(f, n, 2);
+    expect(m.length).toBe(8);
+    // block (0,0,0) holds cells i,j,k in {0,1}: indices (i*4 + j)*4 + k
+    const first = [0, 1, 4, 5, 16, 17, 20, 21].reduce((a, b) => a + b, 0) / 8;
+    expect(m[0]).toBeCloseTo(first, 5);
+    const mean = (a: Float32Array): number => a.reduce((x, y) => x + y, 0) / a.length;
+    expect(mean(m)).toBeCloseTo(mean(f), 4);
   });
 });

@@ -24,6 +24,8 @@ export interface VelocitySpectrumPlot {
   input_index: number | null;
   k_min: number | null;
   k_max: number | null;
+  /** Cells per side of the grid the spectrum was computed on (finer grids are block-averaged to it). */
+  cells?: number;
 }
 
 /** Histogram of log10 of the per-cell Jeans number with the 1/N_J limit. */
