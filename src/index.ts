@@ -8,6 +8,7 @@ export * from './physics/resolution.js';
 export * from './physics/eos.js';
 export * from './physics/magnetic.js';
 export * from './physics/turbulence.js';
+export * from './physics/number-density.js';
 export * from './grid/grid3.js';
 export * from './grid/fft3.js';
 export * from './grid/random-field.js';

@@ -7,7 +7,6 @@ import { InputError } from '../src/input-error.js';
 
 const G = 6.6743e-8; // CODATA 2018
 const MSUN = 1.3271244e26 / G; // IAU 2015
-const PC = (648000 / Math.PI) * 1.495978707e13;
 
 function digest(fields: Float32Array[]): string {
   let h = 2166136261;

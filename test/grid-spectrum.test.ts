@@ -16,7 +16,7 @@ describe('powerSpectrum', () => {
     expect(Math.max(...s.power)).toBe(0);
   });
   it('a single cosine of wavenumber 3 puts all its mean square (Parseval) in shell 3', () => {
-    const s = powerSpectrum(wave((x, y) => Math.cos(2 * Math.PI * 3 * y)), g);
+    const s = powerSpectrum(wave((_x, y) => Math.cos(2 * Math.PI * 3 * y)), g);
     const total = s.energy.reduce((a, b) => a + b, 0);
     expect(total).toBeCloseTo(0.5, 6); // <cos^2> = 1/2
     expect(s.energy[2]).toBeCloseTo(0.5, 6);

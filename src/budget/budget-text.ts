@@ -1,7 +1,7 @@
 /** The plain-language budget block printed in the terminal: verdict first, then numbers, assumptions and cautions. */
 import { toUnit } from '../physics/units.js';
 import { fmt, fmtBytes } from './format.js';
-import { h2NumberDensity } from './summary-blocks.js';
+import { h2NumberDensity } from '../physics/number-density.js';
 import type { BudgetResult, GridResolution } from './types.js';
 
 function pad(s: string, n: number): string {

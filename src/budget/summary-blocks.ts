@@ -2,15 +2,11 @@
  * The `resolution` and `cost` blocks of summary.json (and of `fragplan budget --json`):
  * snake_case keys with unit suffixes; units converted here, once, from cgs.
  */
-import { M_H, MU_H2 } from '../physics/constants.js';
+import { h2NumberDensity } from '../physics/number-density.js';
 import { describeJeansConvention } from '../physics/jeans.js';
 import { toUnit } from '../physics/units.js';
 import type { BudgetResult, GridResolution } from './types.js';
 
-/** Number density of H2 molecules, cm^-3, for mass density rho (g/cm^3), mu_H2 = 2.8 (common practice). */
-export function h2NumberDensity(rho: number): number {
-  return rho / (MU_H2 * M_H.value);
-}
 
 /** The grid-only resolution numbers (per-cell Jeans number on a generated or loaded cube). */
 export function gridResolutionSummary(g: GridResolution, cellsPerJeansLength: number): Record<string, unknown> {

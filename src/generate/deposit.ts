@@ -26,16 +26,16 @@ export function depositBlobs(g: Grid3, density: Float32Array, inside: Uint8Array
   const dx = cellSize(g);
   const dv = cellVolume(g);
   const { nx, ny, nz, boxSize: L } = g;
-  const idx = (x: number, n: number): number => Math.floor((x + L / 2) / dx - 0.5);
+  const idx = (x: number): number => Math.floor((x + L / 2) / dx - 0.5);
   let lost = 0;
   const cells: number[] = [];
   const weights: number[] = [];
   for (const b of blobs) {
     const s = Math.max(b.sigma, dx / 2);
     const reach = 3 * s;
-    const i0 = Math.max(0, idx(b.x - reach, nx)), i1 = Math.min(nx - 1, idx(b.x + reach, nx) + 1);
-    const j0 = Math.max(0, idx(b.y - reach, ny)), j1 = Math.min(ny - 1, idx(b.y + reach, ny) + 1);
-    const k0 = Math.max(0, idx(b.z - reach, nz)), k1 = Math.min(nz - 1, idx(b.z + reach, nz) + 1);
+    const i0 = Math.max(0, idx(b.x - reach)), i1 = Math.min(nx - 1, idx(b.x + reach) + 1);
+    const j0 = Math.max(0, idx(b.y - reach)), j1 = Math.min(ny - 1, idx(b.y + reach) + 1);
+    const k0 = Math.max(0, idx(b.z - reach)), k1 = Math.min(nz - 1, idx(b.z + reach) + 1);
     cells.length = 0;
     weights.length = 0;
     let sum = 0;

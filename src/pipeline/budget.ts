@@ -16,7 +16,8 @@ import { sigmaForVirialParameter, uniformSphereRotationalEnergy } from '../physi
 import { analyticBudget } from '../budget/analytic-budget.js';
 import { forcingParameter } from '../budget/budget-plan.js';
 import { budgetText } from '../budget/budget-text.js';
-import { costSummary, h2NumberDensity, resolutionSummary } from '../budget/summary-blocks.js';
+import { costSummary, resolutionSummary } from '../budget/summary-blocks.js';
+import { h2NumberDensity } from '../physics/number-density.js';
 import type { BudgetCloud, BudgetResult } from '../budget/types.js';
 import { TOOL_VERSION } from '../version.js';
 

@@ -11,7 +11,8 @@ import { InputError } from '../input-error.js';
 import { parseConfig, loadConfig } from '../config/load.js';
 import type { Config } from '../config/schema.js';
 import { parseUnit, describeDimension, DIM } from '../physics/units.js';
-import { MU_DEFAULT, MU_H2, M_H } from '../physics/constants.js';
+import { MU_DEFAULT } from '../physics/constants.js';
+import { massDensityFromH2 } from '../physics/number-density.js';
 import { parse as parseYaml } from 'yaml';
 import { readIcManifest, readIcCloud } from '../export/manifest-read.js';
 import type { Grid3 } from '../grid/grid3.js';
@@ -55,7 +56,7 @@ export function densityFactor(unit: string): number {
   }
   const same = (d: readonly number[]): boolean => d.every((x, i) => x === u.dim[i]);
   if (same(DIM.massDensity)) return u.factor;
-  if (same(DIM.numberDensity)) return u.factor * MU_H2 * M_H.value;
+  if (same(DIM.numberDensity)) return massDensityFromH2(u.factor);
   throw new InputError(`--density-unit: expected a mass density ("g cm^-3") or an H2 number density ("cm^-3"), got "${unit}" which is ${describeDimension(u.dim)}`);
 }
 

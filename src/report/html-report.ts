@@ -8,12 +8,10 @@ import { escapeHtml } from './html-escape.js';
 import { keyNumbers, verdictOf } from './key-numbers.js';
 import { densityPdfSvg, jeansHistogramSvg, massSpectrumSvg, velocitySpectrumSvg } from './svg-charts.js';
 import { dendrogramSvg } from './svg-dendrogram.js';
+import { CAUTIONS } from './build-summary.js';
 
-/** Cautions every report carries, whatever the summary says. */
-export const STANDARD_CAUTIONS: readonly string[] = [
-  'This is a statistical preview of the initial conditions, not a simulation: fragment counts and masses are forecasts from the initial state.',
-  'Check convergence in the real run: repeat it at higher resolution and compare.',
-];
+/** Cautions every report carries, whatever the summary says: the summary's own list (build-summary.ts). */
+export const STANDARD_CAUTIONS: readonly string[] = [CAUTIONS[0]!, CAUTIONS[2]!];
 
 const CSS = `
 body{font-family:system-ui,-apple-system,"Segoe UI",Helvetica,Arial,sans-serif;margin:0;color:#1d1d1d;background:#fafafa}

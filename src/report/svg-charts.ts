@@ -53,7 +53,7 @@ export function densityPdfSvg(p: DensityPdfPlot | null): string {
 /** Velocity power spectrum, log-log, with a line of the input slope P ~ k^-n anchored on the data. */
 export function velocitySpectrumSvg(p: VelocitySpectrumPlot | null): string {
   const title = 'Velocity power spectrum';
-  const keep = p ? p.k.map((k, i) => i).filter((i) => p.k[i] > 0 && p.power[i] > 0) : [];
+  const keep = p ? p.k.map((_k, i) => i).filter((i) => p.k[i] > 0 && p.power[i] > 0) : [];
   if (!p || keep.length === 0) return emptyPlot('plot-velocity-spectrum', title, 'No velocity field in this run.');
   const k = keep.map((i) => p.k[i]);
   const pw = keep.map((i) => p.power[i]);
@@ -123,7 +123,7 @@ export function massSpectrumSvg(p: MassSpectrumPlot): string {
   const dn = counts.map((c) => c / 0.25);
   const edges = le.map((e) => 10 ** e);
   const xr: [number, number] = [edges[0] / 2, edges[edges.length - 1] * 2];
-  const modelVals = p.models.flatMap((m) => m.dn_dlogm.filter((v, i) => m.masses_msun[i] >= xr[0] && m.masses_msun[i] <= xr[1]));
+  const modelVals = p.models.flatMap((m) => m.dn_dlogm.filter((_v, i) => m.masses_msun[i] >= xr[0] && m.masses_msun[i] <= xr[1]));
   const yr = padLog(extent([...dn, ...modelVals], true) as [number, number]);
   const f = makeFrame({ label: 'M', log: true, min: xr[0], max: xr[1] }, { label: 'dN', log: true, min: yr[0], max: yr[1] });
   const parts = [axes(f, 'candidate mass (Msun)', 'dN / dlog10 M', title), bars(f, edges, dn, COLOURS.data)];
