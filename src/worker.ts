@@ -8,6 +8,7 @@ import { forwardZ, complexAxis, inverseZ } from './grid/fft3.js';
 import type { Grid3 } from './grid/grid3.js';
 import { GENERATE_TASKS } from './generate/worker-tasks.js';
 import { SURVEY_TASKS } from './survey/worker-tasks.js';
+import { REPORT_TASKS } from './report/worker-tasks.js';
 
 type Task = (...args: never[]) => unknown;
 
@@ -18,6 +19,7 @@ const TASKS: Record<string, Task> = {
   fftAxisBand: (start: number, end: number, spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, band: number) => complexAxis(spec, g, axis, inverse, start, end, band),
   ...GENERATE_TASKS,
   ...SURVEY_TASKS,
+  ...REPORT_TASKS,
 };
 
 parentPort?.on('message', (job: { id: number; task: string; args: unknown[] }) => {

@@ -12,14 +12,15 @@ import { jeansNumber } from '../physics/resolution.js';
 import { soundSpeed } from '../physics/sound-speed.js';
 import type { GridResolution } from './types.js';
 
-/** Per-cell Jeans number map (temperature: per-cell gas temperature in K, or a base T0 that follows the EOS), 1/max J, unresolved mass fraction (J > 1/N_J) and cells needing refinement. */
-export function gridResolution(grid: Grid3, density: Float32Array, temperature: number | Float32Array, mu: number, eos: Eos, cellsPerJeansLength: number): GridResolution {
+/** Per-cell Jeans number map (into jmapOut when given; temperature: per-cell gas temperature in K, or a base T0 that follows the EOS), 1/max J, unresolved mass fraction (J > 1/N_J) and cells needing refinement. */
+export function gridResolution(grid: Grid3, density: Float32Array, temperature: number | Float32Array, mu: number, eos: Eos, cellsPerJeansLength: number, jmapOut?: Float32Array): GridResolution {
   const n = cellCount(grid);
   if (density.length !== n) throw new RangeError(`density has ${density.length} values, the grid ${n}`);
   if (typeof temperature !== 'number' && temperature.length !== n) throw new RangeError(`temperature has ${temperature.length} values, the grid ${n}`);
   if (!(cellsPerJeansLength > 0)) throw new RangeError(`cells per Jeans length must be positive, got ${cellsPerJeansLength}`);
   const dx = cellSize(grid);
-  const jmap = new Float32Array(n);
+  if (jmapOut && jmapOut.length !== n) throw new RangeError(`jmapOut has ${jmapOut.length} values, the grid ${n}`);
+  const jmap = jmapOut ?? new Float32Array(n);
   const limit = 1 / cellsPerJeansLength;
   let maxJ = 0;
   let mass = 0;

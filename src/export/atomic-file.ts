@@ -35,7 +35,8 @@ export function writeFileAtomic(finalPath: string, data: string | Uint8Array, fo
 
 /** A streaming writer to a temporary name: write chunks, then commit (rename) or abort. */
 export interface AtomicStream {
-  write(chunk: Uint8Array): Promise<void>;
+  /** Writes a chunk; `stable`: the caller never changes these bytes again, so they are not copied. */
+  write(chunk: Uint8Array, stable?: boolean): Promise<void>;
   /** Flushes, renames to the final name and returns the sha256 (hex) of all bytes written. */
   commit(): Promise<string>;
   abort(): void;
@@ -51,12 +52,13 @@ export function openAtomicStream(finalPath: string, force: boolean): AtomicStrea
   let failed: Error | null = null;
   out.on('error', (e) => { failed = e; });
   return {
-    write: (chunk) =>
+    write: (chunk, stable = false) =>
       new Promise<void>((resolve, reject) => {
         if (failed) return reject(failed);
         hash.update(chunk);
-        // copy: the caller may reuse its buffer once the promise resolves
-        const ok = out.write(Buffer.from(chunk), (err) => (err ? reject(err) : undefined));
+        // copy unless stable: the caller may reuse its buffer once the promise resolves
+        const data = stable ? Buffer.from(chunk.buffer, chunk.byteOffset, chunk.byteLength) : Buffer.from(chunk);
+        const ok = out.write(data, (err) => (err ? reject(err) : undefined));
         if (ok) resolve();
         else out.once('drain', () => resolve());
       }),

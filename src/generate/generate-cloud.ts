@@ -45,6 +45,11 @@ export interface GenerateOptions {
   /** A running pool to use (null: one thread); when absent, one is created and closed. */
   pool?: WorkerPool | null;
   progress?: ProgressSink;
+  /**
+   * Called once the density is final (after the renormalisation; the velocity, temperature and
+   * field are still to come): density g/cm^3 on the grid, and the ambient density g/cm^3.
+   */
+  onDensity?: (density: Float32Array, grid: Grid3, ambientDensity: number) => void;
 }
 
 /** Number of half spectra (Float64) the generation needs at once. */
@@ -86,14 +91,14 @@ export async function generateCloud(config: Config, opts: GenerateOptions = {}):
   // The pool's workers are unref'd: keep the event loop alive while we wait on them.
   const keepAlive = pool ? setInterval(() => {}, 1 << 30) : null;
   try {
-    return await build(config, seed, cells, pool, progress);
+    return await build(config, seed, cells, pool, progress, opts.onDensity);
   } finally {
     if (keepAlive) clearInterval(keepAlive);
     if (own && pool) await pool.close();
   }
 }
 
-async function build(config: Config, seed: number, cells: number, pool: WorkerPool | null, progress: ProgressSink): Promise<Cloud> {
+async function build(config: Config, seed: number, cells: number, pool: WorkerPool | null, progress: ProgressSink, onDensity?: GenerateOptions['onDensity']): Promise<Cloud> {
   const c = config.cloud;
   const env = resolveEnvelope(config);
   const dims = cloudDimensions(config);
@@ -164,6 +169,7 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
   const massCorrection = env.mass / before;
   notes.push(`mass correction: the gridded cloud density was multiplied by ${massCorrection.toFixed(6)} so that the cloud holds exactly ${(env.mass / M_SUN.value).toPrecision(6)} Msun`);
   const { centre } = scaleCloudMassCentre(g, density, inside, massCorrection);
+  onDensity?.(density, g, dims.ambientDensity);
 
   // 5. turbulence
   if (c.turbulence && sigma3D !== null) {

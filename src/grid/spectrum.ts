@@ -23,22 +23,39 @@ export interface ShellSpectrum {
   readonly count: Float64Array;
 }
 
-function accumulate(spec: Float64Array, g: Grid3, sumK: Float64Array, energy: Float64Array, count: Float64Array, countModes: boolean): void {
+/**
+ * Squared transfer function, per FFT index of an axis of n cells, of a block mean over f cells per
+ * axis: H(k) = sin(pi k / n) / (f sin(pi k / (f n))) (k in cycles per box); all 1 when f = 1.
+ */
+export function blockMeanTransfer2(n: number, f: number): Float64Array {
+  const out = new Float64Array(n).fill(1);
+  if (f === 1) return out;
+  for (let i = 1; i < n; i++) {
+    const k = signedWavenumber(i, n);
+    const h = Math.sin((Math.PI * k) / n) / (f * Math.sin((Math.PI * k) / (f * n)));
+    out[i] = h * h;
+  }
+  return out;
+}
+
+function accumulate(spec: Float64Array, g: Grid3, sumK: Float64Array, energy: Float64Array, count: Float64Array, countModes: boolean, blockFactor = 1): void {
   const { nx, ny, nz } = g;
   const nh = halfLength(nz);
   const n2 = (nx * ny * nz) ** 2;
   const shells = sumK.length;
+  const hx = blockMeanTransfer2(nx, blockFactor), hy = blockMeanTransfer2(ny, blockFactor), hz = blockMeanTransfer2(nz, blockFactor);
   for (let i = 0; i < nx; i++) {
     const kx = signedWavenumber(i, nx);
     for (let j = 0; j < ny; j++) {
       const ky = signedWavenumber(j, ny);
+      const hxy = hx[i]! * hy[j]!;
       for (let c = 0; c < nh; c++) {
         const k = Math.sqrt(kx * kx + ky * ky + c * c);
         const s = Math.floor(k + 0.5);
         if (s === 0 || s >= shells) continue;
         const w = c === 0 || 2 * c === nz ? 1 : 2;
         const idx = ((i * ny + j) * nh + c) * 2;
-        const p = (spec[idx]! ** 2 + spec[idx + 1]! ** 2) / n2;
+        const p = (spec[idx]! ** 2 + spec[idx + 1]! ** 2) / n2 / (hxy * hz[c]!);
         energy[s] += w * p;
         if (countModes) {
           sumK[s] += w * k;
@@ -66,17 +83,21 @@ export function powerSpectrum(field: ArrayLike<number>, g: Grid3): ShellSpectrum
   return vectorPowerSpectrum([field], g);
 }
 
-/** Shell-averaged power spectrum of a vector field: the component powers summed. */
-export function vectorPowerSpectrum(components: readonly ArrayLike<number>[], g: Grid3): ShellSpectrum {
+/** Shell-averaged power spectrum of a vector field: the component powers summed (blockFactor: see vectorPowerSpectrumParallel). */
+export function vectorPowerSpectrum(components: readonly ArrayLike<number>[], g: Grid3, blockFactor = 1): ShellSpectrum {
   const shells = Math.floor(Math.min(g.nx, g.ny, g.nz) / 2) + 1;
   const sumK = new Float64Array(shells), energy = new Float64Array(shells), count = new Float64Array(shells);
-  components.forEach((f, a) => accumulate(realForward3(f, g), g, sumK, energy, count, a === 0));
+  components.forEach((f, a) => accumulate(realForward3(f, g), g, sumK, energy, count, a === 0, blockFactor));
   return finish(sumK, energy, count);
 }
 
-/** vectorPowerSpectrum with the transforms over a worker pool (same result; fields copied to shared memory if needed). */
-export async function vectorPowerSpectrumParallel(pool: WorkerPool | null, components: readonly Float32Array[], g: Grid3): Promise<ShellSpectrum> {
-  if (!pool || pool.size < 2) return vectorPowerSpectrum(components, g);
+/**
+ * vectorPowerSpectrum with the transforms over a worker pool (same result; fields copied to shared
+ * memory if needed). `blockFactor` f > 1: the components are block means of a field f times finer,
+ * and each mode's power is divided by the block mean's squared transfer function (blockMeanTransfer2).
+ */
+export async function vectorPowerSpectrumParallel(pool: WorkerPool | null, components: readonly Float32Array[], g: Grid3, blockFactor = 1): Promise<ShellSpectrum> {
+  if (!pool || pool.size < 2) return vectorPowerSpectrum(components, g, blockFactor);
   const shells = Math.floor(Math.min(g.nx, g.ny, g.nz) / 2) + 1;
   const sumK = new Float64Array(shells), energy = new Float64Array(shells), count = new Float64Array(shells);
   const spec = sharedSpectrum(g);
@@ -85,7 +106,7 @@ export async function vectorPowerSpectrumParallel(pool: WorkerPool | null, compo
     const shared = f.buffer instanceof SharedArrayBuffer ? f : new Float32Array(new SharedArrayBuffer(f.length * 4));
     if (shared !== f) shared.set(f);
     await realForward3Parallel(pool, shared, g, spec);
-    accumulate(spec, g, sumK, energy, count, a === 0);
+    accumulate(spec, g, sumK, energy, count, a === 0, blockFactor);
   }
   return finish(sumK, energy, count);
 }

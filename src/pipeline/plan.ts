@@ -16,7 +16,7 @@ import { createPool, defaultWorkerCount, type WorkerPool } from '../grid/pool.js
 import { isPowerOfTwo, volumeIntegral } from '../grid/grid3.js';
 import { InputError } from '../input-error.js';
 import { surveyCloud } from '../survey/survey-cloud.js';
-import { surveyOptionsFromConfig, hierarchySummary, treeJson, fragmentsCsv, runEnsemble, ensembleSummary, estimateSurveyBytes } from '../survey/index.js';
+import { surveyOptionsFromConfig, hierarchySummary, treeJson, fragmentsCsv, runEnsemble, ensembleSummary, estimateSurveyBytes, startMergeTree, type PendingTree } from '../survey/index.js';
 import type { SurveyResult } from '../survey/types.js';
 import { analyticBudget, gridResolution, resolutionSummary, costSummary, eosFromConfig } from '../budget/index.js';
 import type { BudgetResult, GridResolution } from '../budget/types.js';
@@ -26,7 +26,7 @@ import { writePreview } from '../export/preview.js';
 import { writeFileAtomic } from '../export/atomic-file.js';
 import { renderReport } from '../report/html-report.js';
 import { buildSummary, cloudBlock, gridBlock, jsonText, withoutTimings } from '../report/build-summary.js';
-import { buildPlots } from '../report/build-plots.js';
+import { buildGridPlots, withSurveyPlots, type GridPlots } from '../report/build-plots.js';
 import type { Summary } from '../report/summary-types.js';
 import type { PlotData } from '../report/plot-data.js';
 import { silentProgress, type ProgressSink } from '../progress.js';
@@ -69,11 +69,32 @@ export function effectiveConfig(config: Config, opts: Pick<PlanOptions, 'cells' 
   };
 }
 
-/** Generates and surveys one cloud (used by plan, ensembles and the ladder). */
-export async function generateAndSurvey(config: Config, pool: WorkerPool | null, progress: ProgressSink, seed = config.seed, cells = config.grid.cells): Promise<{ cloud: Cloud; survey: SurveyResult; seconds: Record<string, number> }> {
+/**
+ * Generates and surveys one cloud (used by plan, ensembles and the ladder). With `lane` (a one-worker
+ * pool nothing else uses) the merge tree is built there from the moment the density is final, while the
+ * generator makes the velocity and, once the cloud is done, `whileTree` does main-thread work on it.
+ * Timings: generate (s), whileTree (s, when given), survey (s, from the end of whileTree; the tree's own
+ * build time, overlapping the others, is in the survey's timings).
+ */
+export async function generateAndSurvey(
+  config: Config, pool: WorkerPool | null, progress: ProgressSink, seed = config.seed, cells = config.grid.cells,
+  lane: WorkerPool | null = null, whileTree?: (cloud: Cloud) => Promise<void>,
+): Promise<{ cloud: Cloud; survey: SurveyResult; seconds: Record<string, number> }> {
   const t0 = performance.now();
-  const cloud = await generateCloud(config, { seed, cells, pool, progress });
+  let pending: PendingTree | undefined;
+  const cloud = await generateCloud(config, {
+    seed, cells, pool, progress,
+    onDensity: (density, grid, ambientDensity) => {
+      pending = startMergeTree(density, grid, surveyOptionsFromConfig(config, { ambientDensity, mach: null, velocitySpectrumIndex: null }), lane);
+    },
+  });
   const t1 = performance.now();
+  const seconds: Record<string, number> = { generate: (t1 - t0) / 1000 };
+  if (whileTree) {
+    await whileTree(cloud);
+    seconds.while_tree = (performance.now() - t1) / 1000;
+  }
+  const t2 = performance.now();
   const s = cloud.summary;
   const options = surveyOptionsFromConfig(config, { ambientDensity: s.ambientDensity, mach: s.mach, velocitySpectrumIndex: s.velocitySpectrumIndex });
   const survey = await surveyCloud(
@@ -81,9 +102,10 @@ export async function generateAndSurvey(config: Config, pool: WorkerPool | null,
     options,
     progress,
     pool,
+    pending,
   );
-  const t2 = performance.now();
-  return { cloud, survey, seconds: { generate: (t1 - t0) / 1000, survey: (t2 - t1) / 1000 } };
+  seconds.survey = (performance.now() - t2) / 1000;
+  return { cloud, survey, seconds };
 }
 
 /** The analytic budget, computed from the config exactly as `fragplan budget` does, so both agree. */
@@ -114,68 +136,84 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
 
   const workers = config.grid.workers ?? defaultWorkerCount();
   const pool = workers > 1 ? createPool(workers) : null;
+  // the merge tree's own worker: it runs beside the generator's pool (see generateAndSurvey)
+  const lane = pool ? createPool(1) : null;
   try {
     const timings: Record<string, number> = {};
-    const { cloud, survey, seconds } = await generateAndSurvey(config, pool, progress);
+    const nj = config.budget.grid.cells_per_jeans_length;
+    const ex = config.export;
+    const files: string[] = [];
+    let gridRes: GridResolution | undefined;
+    let budget: BudgetResult | undefined;
+    let gridPlots: GridPlots | undefined;
+    // Work on the finished cloud that does not need the survey, done while the tree is built:
+    // the grid's Jeans numbers and the budget, the grid plots, the initial-condition files.
+    const whileTree = async (cloud: Cloud): Promise<void> => {
+      // Jeans numbers and histograms on the pool (into shared memory) while this thread writes the grids
+      const eos = eosFromConfig(config);
+      const resP = pool && cloud.density.buffer instanceof SharedArrayBuffer
+        ? pool.run<GridResolution>('budgetGridResolution', [cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj, new Float32Array(new SharedArrayBuffer(cloud.density.length * 4))])
+        : Promise.resolve(gridResolution(cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj));
+      const plotsP = buildGridPlots(cloud, resP, nj, undefined, pool);
+      plotsP.catch(() => {}); // awaited below; a failure is reported there
+      budget = budgetForConfig(config);
+      const t = performance.now();
+      mkdirSync(runDir, { recursive: true });
+      await writeGridExports(cloud, path.join(runDir, 'ic'), {
+        formats: ex.formats, precision: ex.precision, units: ex.units, codeUnits: { length: ex.code_units.length, mass: ex.code_units.mass },
+        thermalField: ex.thermal_field, particles: ex.particles ?? null, force: opts.force, mu: cloud.summary.mu,
+      }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, progress);
+      files.push('ic/manifest.json');
+      timings.write_ic = (performance.now() - t) / 1000;
+      gridRes = await resP;
+      gridPlots = await plotsP;
+    };
+    const { cloud, survey, seconds } = await generateAndSurvey(config, pool, progress, config.seed, cells, lane, whileTree);
     Object.assign(timings, seconds);
     for (const [k, v] of Object.entries(survey.timings)) timings[`survey_${k}`] = v;
-
-    let t = performance.now();
-    const nj = config.budget.grid.cells_per_jeans_length;
-    const gridRes = gridResolution(cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eosFromConfig(config), nj);
-    const budget = budgetForConfig(config);
-    timings.budget = (performance.now() - t) / 1000;
+    if (!gridRes || !budget || !gridPlots) throw new Error('plan: the grid outputs were not made');
+    const res = gridRes, bud = budget;
 
     let ensemble: Record<string, unknown> | undefined;
+    let t = performance.now();
     if (config.survey.realizations > 1) {
-      t = performance.now();
       const seeds = Array.from({ length: config.survey.realizations }, (_, i) => config.seed + i);
-      const stats = await runEnsemble(seeds.length, async (seed) => (await generateAndSurvey(config, pool, silentProgress, seed)).survey, seeds);
+      const stats = await runEnsemble(seeds.length, async (seed) => (await generateAndSurvey(config, pool, silentProgress, seed, cells, lane)).survey, seeds);
       ensemble = ensembleSummary(stats);
       timings.ensemble = (performance.now() - t) / 1000;
     }
 
-    const warnings = [...cloud.summary.notes, ...budget.warnings, ...boundButStableWarnings(survey)];
+    const warnings = [...cloud.summary.notes, ...bud.warnings, ...boundButStableWarnings(survey)];
     const summaryWithTimes = (): Summary =>
       buildSummary({
         name: loaded.name, toolVersion: TOOL_VERSION, seed: config.seed, configSha256: loaded.sha256,
         cloud: cloudBlock(cloud.summary), grid: gridBlock(cloud.grid, volumeIntegral(cloud.grid, cloud.density)),
-        resolution: resolutionSummary(budget, gridRes), hierarchy: hierarchySummary(survey), cost: costSummary(budget),
+        resolution: resolutionSummary(bud, res), hierarchy: hierarchySummary(survey), cost: costSummary(bud),
         ...(ensemble ? { ensemble } : {}), warnings, timings,
       });
-    t = performance.now();
-    const plots = await buildPlots(cloud, survey, gridRes, nj, undefined, pool);
-    timings.plots = (performance.now() - t) / 1000;
+    const plots = withSurveyPlots(gridPlots, survey);
     const tree = treeJson(survey);
     const csv = fragmentsCsv(survey);
     const stable = withoutTimings(summaryWithTimes());
 
     t = performance.now();
-    mkdirSync(runDir, { recursive: true });
-    const files: string[] = [];
     const put = (name: string, data: string | Uint8Array): void => {
       writeFileAtomic(path.join(runDir, name), data, opts.force);
       files.push(name);
     };
-    const ex = config.export;
-    await writeGridExports(cloud, path.join(runDir, 'ic'), {
-      formats: ex.formats, precision: ex.precision, units: ex.units, codeUnits: { length: ex.code_units.length, mass: ex.code_units.mass },
-      thermalField: ex.thermal_field, particles: ex.particles ?? null, force: opts.force, mu: cloud.summary.mu,
-    }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, progress);
-    files.push('ic/manifest.json');
     put('tree.json', jsonText(tree));
     put('fragments.csv', csv);
     put('report.html', renderReport(stable as Summary, plots, loaded.text));
     await writePreview(path.join(runDir, 'preview.zip'), {
-      cloud, jeansNumber: gridRes.jeansNumber, labels: survey.labels, summary: stable, tree, fragmentsCsv: csv, plots,
+      cloud, jeansNumber: res.jeansNumber, labels: survey.labels, summary: stable, tree, fragmentsCsv: csv, plots,
       particles: null, previewCells: Math.min(ex.preview_cells, cells), toolVersion: TOOL_VERSION,
     }, opts.force);
     files.push('preview.zip');
     timings.write = (performance.now() - t) / 1000;
     const summary = summaryWithTimes();
     put('summary.json', jsonText(summary));
-    return { summary, plots, runDir, files, budget, gridResolution: gridRes };
+    return { summary, plots, runDir, files, budget: bud, gridResolution: res };
   } finally {
-    await pool?.close();
+    await Promise.all([pool?.close(), lane?.close()]);
   }
 }

@@ -54,20 +54,26 @@ export function densityPdf(density: Float32Array, mask: Uint8Array | null, sigma
   return { s: centres, pdf, rho0_gcc: rho0, sigma_s_measured: sigma, sigma_s_expected: sigmaExpected };
 }
 
-/** Largest grid the report's velocity spectrum is computed on; finer grids are block-averaged to it. */
-export const SPECTRUM_MAX_CELLS = 256;
+/**
+ * Largest grid the report's velocity spectrum is computed on; finer grids are block-averaged to it.
+ * 128^3 resolves wavenumbers to 64 cycles per box, beyond the k_max of the presets, and costs a
+ * tenth of the three forward FFTs at 256^3.
+ */
+export const SPECTRUM_MAX_CELLS = 128;
 
-/** Block mean of a cubic field by an integer factor, into shared memory (for the worker pool). */
+/** Block mean of a cubic field by an integer factor, into shared memory (for the worker pool); sums in Float64, cell order. */
 export function blockMean(field: Float32Array, n: number, factor: number): Float32Array {
   const m = n / factor;
   const out = new Float32Array(new SharedArrayBuffer(m * m * m * 4));
   const sums = new Float64Array(m * m * m);
+  const coarseK = new Int32Array(n);
+  for (let k = 0; k < n; k++) coarseK[k] = Math.floor(k / factor);
   for (let i = 0; i < n; i++) {
     const bi = Math.floor(i / factor) * m;
     for (let j = 0; j < n; j++) {
       const bj = (bi + Math.floor(j / factor)) * m;
       const row = (i * n + j) * n;
-      for (let k = 0; k < n; k++) sums[bj + Math.floor(k / factor)] += field[row + k]!;
+      for (let k = 0; k < n; k++) sums[bj + coarseK[k]!]! += field[row + k]!;
     }
   }
   const w = 1 / factor ** 3;
@@ -77,8 +83,9 @@ export function blockMean(field: Float32Array, n: number, factor: number): Float
 
 /**
  * Shell-averaged velocity power spectrum with the input slope. Grids finer than SPECTRUM_MAX_CELLS
- * are block-averaged first (a box filter: power at wavenumber k is damped by about
- * sinc^2(pi k f / n) per axis, under 5 % per axis at k = n/(16 f)); `cells` says which grid was used.
+ * are block-averaged first and each mode's power divided by the block mean's squared transfer
+ * function (the usual window compensation); power from above the coarse grid's Nyquist wavenumber
+ * aliases in, which matters only near it. `cells` says which grid was used.
  */
 export async function velocitySpectrum(cloud: Cloud, pool: WorkerPool | null = null): Promise<VelocitySpectrumPlot | null> {
   const s = cloud.summary;
@@ -88,14 +95,14 @@ export async function velocitySpectrum(cloud: Cloud, pool: WorkerPool | null = n
   const factor = cubic && g.nx > SPECTRUM_MAX_CELLS ? g.nx / SPECTRUM_MAX_CELLS : 1;
   const grid = factor === 1 ? g : { nx: g.nx / factor, ny: g.ny / factor, nz: g.nz / factor, boxSize: g.boxSize };
   const comps = factor === 1 ? cloud.velocity : cloud.velocity.map((v) => blockMean(v, g.nx, factor));
-  const sp = await vectorPowerSpectrumParallel(pool, comps, grid);
+  const sp = await vectorPowerSpectrumParallel(pool, comps, grid, factor);
   const k: number[] = [], power: number[] = [];
   for (let i = 0; i < sp.k.length; i++) if (sp.power[i]! > 0) { k.push(sp.k[i]!); power.push(sp.power[i]!); }
   return { k, power, input_index: s.velocitySpectrumIndex, k_min: s.kMin, k_max: s.kMax, cells: grid.nx };
 }
 
 /** Histogram of log10 J over the cells with J > 0, with the 1/N_J limit; two tight passes. */
-export function jeansHistogram(g: GridResolution, cellsPerJeansLength: number): JeansHistogramPlot | null {
+export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNumber'>, cellsPerJeansLength: number): JeansHistogramPlot | null {
   const j = g.jeansNumber;
   let lo = Infinity, hi = -Infinity;
   for (let i = 0; i < j.length; i++) {
@@ -142,15 +149,45 @@ export function treePlot(survey: SurveyResult): TreePlotNode[] {
   }));
 }
 
-/** All plot data; for a foreign cube pass cloud = null and the cube as `cube`. */
-export async function buildPlots(cloud: Cloud | null, survey: SurveyResult, gridRes: GridResolution, cellsPerJeansLength: number, cube?: { grid: Grid3; density: Float32Array }, pool: WorkerPool | null = null): Promise<PlotData> {
+/** The plots that need only the grids (no survey): density PDF, velocity spectrum, Jeans-number histogram. */
+export type GridPlots = Pick<PlotData, 'density_pdf' | 'velocity_spectrum' | 'jeans_histogram'>;
+
+/**
+ * The grid-only plots; for a foreign cube pass cloud = null and the cube as `cube`. `gridResolution`
+ * may still be running (a promise). With a pool and fields on shared memory, the two histograms run
+ * as whole worker tasks (the same functions, so the same numbers) beside the spectrum's transforms.
+ */
+export async function buildGridPlots(cloud: Cloud | null, gridResolution: GridResolution | Promise<GridResolution>, cellsPerJeansLength: number, cube?: { grid: Grid3; density: Float32Array }, pool: WorkerPool | null = null): Promise<GridPlots> {
   const density = cloud ? cloud.density : cube!.density;
+  const mask = cloud ? cloud.inside : null;
+  const sigma = cloud ? cloud.summary.sigmaS : null;
+  const onShared = (a: { buffer: ArrayBufferLike } | null): boolean => a === null || a.buffer instanceof SharedArrayBuffer;
+  const workers = pool !== null && pool.size >= 2;
+  const pdf = workers && onShared(density) && onShared(mask)
+    ? pool.run<DensityPdfPlot | null>('reportDensityPdf', [density, mask, sigma])
+    : Promise.resolve(densityPdf(density, mask, sigma));
+  const spectrum = cloud ? velocitySpectrum(cloud, pool) : Promise.resolve(null);
+  const res = await gridResolution;
+  const jeans = workers && onShared(res.jeansNumber)
+    ? pool.run<JeansHistogramPlot | null>('reportJeansHistogram', [res.jeansNumber, cellsPerJeansLength])
+    : Promise.resolve(jeansHistogram(res, cellsPerJeansLength));
+  const [density_pdf, velocity_spectrum, jeans_histogram] = await Promise.all([pdf, spectrum, jeans]);
+  return { density_pdf, velocity_spectrum, jeans_histogram };
+}
+
+/** All plot data from the grid-only plots and the survey. */
+export function withSurveyPlots(grid: GridPlots, survey: SurveyResult): PlotData {
   return {
     schema: 'fragplan.plots/1',
-    density_pdf: densityPdf(density, cloud ? cloud.inside : null, cloud ? cloud.summary.sigmaS : null),
-    velocity_spectrum: cloud ? await velocitySpectrum(cloud, pool) : null,
-    jeans_histogram: jeansHistogram(gridRes, cellsPerJeansLength),
+    density_pdf: grid.density_pdf,
+    velocity_spectrum: grid.velocity_spectrum,
+    jeans_histogram: grid.jeans_histogram,
     mass_spectrum: massSpectrumPlot(survey),
     tree: treePlot(survey),
   };
+}
+
+/** All plot data; for a foreign cube pass cloud = null and the cube as `cube`. */
+export async function buildPlots(cloud: Cloud | null, survey: SurveyResult, gridRes: GridResolution, cellsPerJeansLength: number, cube?: { grid: Grid3; density: Float32Array }, pool: WorkerPool | null = null): Promise<PlotData> {
+  return withSurveyPlots(await buildGridPlots(cloud, gridRes, cellsPerJeansLength, cube, pool), survey);
 }

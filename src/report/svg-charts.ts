@@ -61,7 +61,7 @@ export function velocitySpectrumSvg(p: VelocitySpectrumPlot | null): string {
   const yr = padLog(extent(pw, true) as [number, number]);
   const f = makeFrame({ label: 'k', log: true, min: xr[0], max: xr[1] }, { label: 'P', log: true, min: yr[0], max: yr[1] });
   let slope = '';
-  const entries: LegendEntry[] = [{ label: 'measured, shell average', colour: COLOURS.data }];
+  const entries: LegendEntry[] = [{ label: `measured, shell average${p.cells ? ` on ${p.cells}^3` : ''}`, colour: COLOURS.data }];
   if (p.input_index !== null) {
     const lo = p.k_min ?? k[0];
     const hi = p.k_max ?? k[k.length - 1];

@@ -6,5 +6,6 @@ export { loadCube, loadVelocityCubes, type LoadCubeOptions } from './load-cube.j
 export { runEnsemble, ensembleSummary, meanSpread, type EnsembleStats, type EnsembleMember } from './ensemble.js';
 export { selfGravityEnergy, uniformCubeSelfEnergy } from './self-gravity.js';
 export { buildMergeTree, type MergeTree, type TreeLimits } from './merge-tree.js';
+export { startMergeTree, type PendingTree } from './tree-task.js';
 export { fitPowerLaw } from './power-law-fit.js';
 export { massSpectrum } from './mass-spectrum.js';

@@ -105,7 +105,10 @@ class Growable {
   }
 }
 
-/** Builds the merge tree of `density` (g/cm^3) over cells denser than `floor`; cellVolume in cm^3 turns density into mass. */
+/**
+ * Builds the merge tree of `density` (g/cm^3) over cells denser than `floor`; cellVolume in cm^3 turns
+ * density into mass. `labelsOut` (optional, one Int32 per cell, e.g. on shared memory) receives the labels.
+ */
 export function buildMergeTree(
   density: Float32Array,
   shape: { nx: number; ny: number; nz: number },
@@ -114,6 +117,7 @@ export function buildMergeTree(
   limits: TreeLimits,
   cellVolume: number,
   onProgress?: (done: number, total: number) => void,
+  labelsOut?: Int32Array,
 ): MergeTree {
   const { nx, ny, nz } = shape;
   const n = nx * ny * nz;
@@ -285,7 +289,8 @@ export function buildMergeTree(
     return r;
   };
   const newId = new Int32Array(count).fill(-1);
-  const labels = new Int32Array(n).fill(-1);
+  if (labelsOut && labelsOut.length !== n) throw new RangeError(`labelsOut has ${labelsOut.length} values, shape holds ${n}`);
+  const labels = (labelsOut ?? new Int32Array(n)).fill(-1);
   let kept = 0;
   for (let t = 0; t < count; t++) if (alias[t] === t && !dropped[t]) newId[t] = kept++;
   for (let p = 0; p < m; p++) labels[order[p]!] = newId[resolve(byRank[p]!)]!;

@@ -12,7 +12,7 @@ import type { SurveyInput, SurveyOptions, SurveyResult } from './types.js';
 import type { WorkerPool } from '../grid/pool.js';
 import { cellCount, cellSize, cellVolume } from '../grid/grid3.js';
 import { silentProgress, type ProgressSink } from '../progress.js';
-import { buildMergeTree } from './merge-tree.js';
+import { startMergeTree, awaitMergeTree, type PendingTree } from './tree-task.js';
 import { nodeMoments, nodeCellLists, CH, NODE_CHANNELS } from './node-moments.js';
 import { nodeGravity, type NodeGravity } from './node-gravity.js';
 import { nodeVerdicts, EXPECTED_RULE } from './node-verdicts.js';
@@ -37,8 +37,11 @@ function now(): number {
   return performance.now() / 1000;
 }
 
-/** Runs the survey of a density cube (g/cm^3) with optional velocity (cm/s), field (G) and temperature (K); see types.ts. */
-export async function surveyCloud(input: SurveyInput, options: SurveyOptions, progress: ProgressSink = silentProgress, pool: WorkerPool | null = null): Promise<SurveyResult> {
+/**
+ * Runs the survey of a density cube (g/cm^3) with optional velocity (cm/s), field (G) and temperature (K);
+ * see types.ts. `pending`: its merge tree, already started by startMergeTree on this cube with these options.
+ */
+export async function surveyCloud(input: SurveyInput, options: SurveyOptions, progress: ProgressSink = silentProgress, pool: WorkerPool | null = null, pending?: PendingTree): Promise<SurveyResult> {
   const g = input.grid;
   const n = cellCount(g);
   if (input.density.length !== n) throw new RangeError(`density has ${input.density.length} values, grid ${g.nx}x${g.ny}x${g.nz} needs ${n}`);
@@ -49,25 +52,17 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
   const vol = cellVolume(g);
   const dx = cellSize(g);
 
-  // density floor
-  let floor = options.floorDensity;
-  let floorRule = options.floorRule ?? 'given';
-  if (!(Number.isFinite(floor) && floor >= 0)) {
-    let s = 0;
-    for (let c = 0; c < n; c++) s += input.density[c]!;
-    floor = s / n;
-    floorRule = 'mean density of the cube (no floor or ambient density given)';
-  }
+  // the merge tree: started elsewhere (a worker, while the generator finished the cloud) or built here
+  const pendingTree = pending ?? startMergeTree(input.density, g, options, null);
+  if (pendingTree.density !== input.density) throw new RangeError('the pending merge tree was started on another density cube');
+  if (Number.isFinite(options.floorDensity) && pendingTree.floor !== options.floorDensity) throw new RangeError(`the pending merge tree uses the floor ${pendingTree.floor}, the options ${options.floorDensity}`);
+  const floor = pendingTree.floor;
+  const floorRule = pendingTree.floorRule;
+  const built = await awaitMergeTree(pendingTree, progress);
+  const tree = built.tree;
+  timings.tree = built.seconds;
 
   let t = now();
-  const st = progress.stage('survey: merge tree', 100);
-  const tree = buildMergeTree(input.density, g, floor, options.connectivity,
-    { minCells: options.minCells, minContrast: options.minContrast, minMass: options.minMass }, vol,
-    (done, total) => st.update(Math.floor((100 * done) / total)));
-  st.stop();
-  timings.tree = now() - t;
-
-  t = now();
   const sums = nodeMoments(input, tree.labels, tree.parent);
   timings.moments = now() - t;
 
