@@ -52,10 +52,9 @@ export interface GenerateOptions {
   onDensity?: (density: Float32Array, grid: Grid3, ambientDensity: number) => void;
 }
 
-/** Number of half spectra (Float64) the generation needs at once. */
+/** Number of half spectra (Float64) the generation needs at once: one scratch spectrum serves every transform. */
 function spectraNeeded(config: Config): number {
-  if (config.cloud.turbulence) return 3;
-  return config.cloud.structure.kind === 'lognormal' ? 1 : 0;
+  return config.cloud.turbulence || config.cloud.structure.kind === 'lognormal' ? 1 : 0;
 }
 
 /** Peak bytes of generating the config at cells^3: Float32 fields, mask, spectra and ~64 MB overhead. */
@@ -176,7 +175,7 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
     st = progress.stage('cloud: turbulent velocity', 5);
     let done = 0;
     const p = { key, index: c.turbulence.spectrum_index, kMin: c.turbulence.k_min, kMax: kMaxV!, zeta };
-    await rawTurbulence(g, pool, p, [specs[0]!, specs[1]!, specs[2]!], velocity, () => st.update(++done));
+    await rawTurbulence(g, pool, p, specs[0]!, velocity, () => st.update(++done));
     let rms = removeNetMomentum(g, density, inside, velocity);
     if (c.turbulence.zero_angular_momentum) {
       removeNetAngularMomentum(g, density, inside, velocity, centre);

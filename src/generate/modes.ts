@@ -84,25 +84,28 @@ function forBand(
   }
 }
 
-/** Fills the three velocity-component half spectra (rows [start, end)) per the file comment. */
-export function fillVelocityModes(start: number, end: number, vx: Float64Array, vy: Float64Array, vz: Float64Array, g: Grid3, p: VelocityModeParams): void {
+/**
+ * Fills the half spectrum of velocity component `axis` (0 x, 1 y, 2 z; rows [start, end)) per the file
+ * comment. Each component is computed from all three raw vectors by the same expression whether
+ * the components are filled together or one at a time, so one scratch spectrum serves all three.
+ */
+export function fillVelocityComponent(start: number, end: number, spec: Float64Array, axis: 0 | 1 | 2, g: Grid3, p: VelocityModeParams): void {
   const w0 = new Float64Array(2), w1 = new Float64Array(2), w2 = new Float64Array(2);
+  const ws = [w0, w1, w2] as const;
+  const w = ws[axis];
   const a = 1 - 2 * p.zeta;
-  forBand(g, start, end, p.kMin, p.kMax, [vx, vy, vz], (idx, kx, ky, kz, k, flip) => {
+  forBand(g, start, end, p.kMin, p.kMax, [spec], (idx, kx, ky, kz, k, flip) => {
     modeGaussian(p.key, STREAM_VELOCITY[0], kx, ky, kz, w0);
     modeGaussian(p.key, STREAM_VELOCITY[1], kx, ky, kz, w1);
     modeGaussian(p.key, STREAM_VELOCITY[2], kx, ky, kz, w2);
     const hx = kx / k, hy = ky / k, hz = kz / k;
+    const h = axis === 0 ? hx : axis === 1 ? hy : hz;
     const dr = hx * w0[0]! + hy * w1[0]! + hz * w2[0]!;
     const di = hx * w0[1]! + hy * w1[1]! + hz * w2[1]!;
     const amp = k ** (-p.index / 2);
     const sg = flip ? -1 : 1;
-    vx[idx] = amp * (p.zeta * w0[0]! + a * hx * dr);
-    vx[idx + 1] = sg * amp * (p.zeta * w0[1]! + a * hx * di);
-    vy[idx] = amp * (p.zeta * w1[0]! + a * hy * dr);
-    vy[idx + 1] = sg * amp * (p.zeta * w1[1]! + a * hy * di);
-    vz[idx] = amp * (p.zeta * w2[0]! + a * hz * dr);
-    vz[idx + 1] = sg * amp * (p.zeta * w2[1]! + a * hz * di);
+    spec[idx] = amp * (p.zeta * w[0]! + a * h * dr);
+    spec[idx + 1] = sg * amp * (p.zeta * w[1]! + a * h * di);
   });
 }
 

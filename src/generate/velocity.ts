@@ -14,18 +14,17 @@ import type { Grid3 } from '../grid/grid3.js';
 import { cellVolume } from '../grid/grid3.js';
 import type { WorkerPool } from '../grid/pool.js';
 import { realInverse3Parallel } from '../grid/fft3-parallel.js';
-import { fillVelocityModes, type VelocityModeParams } from './modes.js';
+import { fillVelocityComponent, type VelocityModeParams } from './modes.js';
 import { angularMoments, axisCentres, solve3 } from './moments.js';
 
 type Vec3Field = readonly [Float32Array, Float32Array, Float32Array];
 
-/** Fills v with the raw turbulent field (unnormalised) on the cloud; spectra are 3 scratch half spectra (overwritten). */
-export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: VelocityModeParams, specs: readonly [Float64Array, Float64Array, Float64Array], v: Vec3Field, onStep: () => void): Promise<void> {
-  if (pool) await pool.runRanges('genVelocityModes', g.nx, [specs[0], specs[1], specs[2], g, p]);
-  else fillVelocityModes(0, g.nx, specs[0], specs[1], specs[2], g, p);
-  onStep();
-  for (let a = 0; a < 3; a++) {
-    await realInverse3Parallel(pool, specs[a]!, g, v[a]!, p.kMax);
+/** Fills v with the raw turbulent field (unnormalised) on the cloud, one component at a time through `spec`, a scratch half spectrum (overwritten). */
+export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: VelocityModeParams, spec: Float64Array, v: Vec3Field, onStep: () => void): Promise<void> {
+  for (const a of [0, 1, 2] as const) {
+    if (pool) await pool.runRanges('genVelocityComponent', g.nx, [spec, a, g, p]);
+    else fillVelocityComponent(0, g.nx, spec, a, g, p);
+    await realInverse3Parallel(pool, spec, g, v[a], p.kMax);
     onStep();
   }
 }

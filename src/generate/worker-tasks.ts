@@ -3,13 +3,13 @@
  * Each takes (start, end, ...args) over x-rows or flat cell ranges and writes shared arrays;
  * conventions of the kernels are in modes.ts and cell-kernels.ts.
  */
-import { fillLogDensityModes, fillVelocityModes } from './modes.js';
+import { fillLogDensityModes, fillVelocityComponent } from './modes.js';
 import { applyLognormal, fillTemperature, gridEnvelope } from './cell-kernels.js';
 import { scaleVelocityCells } from './velocity.js';
 
 /** Task name -> function, for the worker registry. */
 export const GENERATE_TASKS = {
-  genVelocityModes: fillVelocityModes,
+  genVelocityComponent: fillVelocityComponent,
   genLogDensityModes: fillLogDensityModes,
   genEnvelope: gridEnvelope,
   genLognormal: applyLognormal,

@@ -61,23 +61,38 @@ export function densityPdf(density: Float32Array, mask: Uint8Array | null, sigma
  */
 export const SPECTRUM_MAX_CELLS = 128;
 
-/** Block mean of a cubic field by an integer factor, into shared memory (for the worker pool); sums in Float64, cell order. */
-export function blockMean(field: Float32Array, n: number, factor: number): Float32Array {
+/**
+ * Block mean by an integer factor of coarse x-planes [start, end) of a cubic field of n cells per side
+ * into out (m = n/factor per side); each coarse cell sums its fine cells in cell order in Float64, so
+ * the result does not depend on how planes are split (a worker task).
+ */
+export function blockMeanPlanes(start: number, end: number, field: Float32Array, n: number, factor: number, out: Float32Array): void {
   const m = n / factor;
-  const out = new Float32Array(new SharedArrayBuffer(m * m * m * 4));
-  const sums = new Float64Array(m * m * m);
+  const plane = m * m;
+  const sums = new Float64Array(plane);
   const coarseK = new Int32Array(n);
   for (let k = 0; k < n; k++) coarseK[k] = Math.floor(k / factor);
-  for (let i = 0; i < n; i++) {
-    const bi = Math.floor(i / factor) * m;
-    for (let j = 0; j < n; j++) {
-      const bj = (bi + Math.floor(j / factor)) * m;
-      const row = (i * n + j) * n;
-      for (let k = 0; k < n; k++) sums[bj + coarseK[k]!]! += field[row + k]!;
-    }
-  }
   const w = 1 / factor ** 3;
-  for (let c = 0; c < sums.length; c++) out[c] = sums[c]! * w;
+  for (let ci = start; ci < end; ci++) {
+    sums.fill(0);
+    for (let i = ci * factor; i < (ci + 1) * factor; i++) {
+      for (let j = 0; j < n; j++) {
+        const bj = Math.floor(j / factor) * m;
+        const row = (i * n + j) * n;
+        for (let k = 0; k < n; k++) sums[bj + coarseK[k]!]! += field[row + k]!;
+      }
+    }
+    const o = ci * plane;
+    for (let c = 0; c < plane; c++) out[o + c] = sums[c]! * w;
+  }
+}
+
+/** Block mean of a cubic field by an integer factor, into shared memory; over the pool when given. */
+export async function blockMean(field: Float32Array, n: number, factor: number, pool: WorkerPool | null = null): Promise<Float32Array> {
+  const m = n / factor;
+  const out = new Float32Array(new SharedArrayBuffer(m * m * m * 4));
+  if (pool && pool.size >= 2 && field.buffer instanceof SharedArrayBuffer) await pool.runRanges('reportBlockMean', m, [field, n, factor, out]);
+  else blockMeanPlanes(0, m, field, n, factor, out);
   return out;
 }
 
@@ -94,7 +109,7 @@ export async function velocitySpectrum(cloud: Cloud, pool: WorkerPool | null = n
   const cubic = g.nx === g.ny && g.ny === g.nz;
   const factor = cubic && g.nx > SPECTRUM_MAX_CELLS ? g.nx / SPECTRUM_MAX_CELLS : 1;
   const grid = factor === 1 ? g : { nx: g.nx / factor, ny: g.ny / factor, nz: g.nz / factor, boxSize: g.boxSize };
-  const comps = factor === 1 ? cloud.velocity : cloud.velocity.map((v) => blockMean(v, g.nx, factor));
+  const comps = factor === 1 ? cloud.velocity : await Promise.all(cloud.velocity.map((v) => blockMean(v, g.nx, factor, pool)));
   const sp = await vectorPowerSpectrumParallel(pool, comps, grid, factor);
   const k: number[] = [], power: number[] = [];
   for (let i = 0; i < sp.k.length; i++) if (sp.power[i]! > 0) { k.push(sp.k[i]!); power.push(sp.power[i]!); }
