@@ -146,10 +146,12 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     let gridRes: GridResolution | undefined;
     let budget: BudgetResult | undefined;
     let gridPlots: GridPlots | undefined;
+    let icWrite: Promise<void> | undefined;
     // Work on the finished cloud that does not need the survey, done while the tree is built:
-    // the grid's Jeans numbers and the budget, the grid plots, the initial-condition files.
+    // the grid's Jeans numbers and the budget, the grid plots; the initial-condition files are
+    // started here and finish while the survey runs.
     const whileTree = async (cloud: Cloud): Promise<void> => {
-      // Jeans numbers and histograms on the pool (into shared memory) while this thread writes the grids
+      // Jeans numbers and histograms on the pool (into shared memory), beside the tree
       const eos = eosFromConfig(config);
       const resP = pool && cloud.density.buffer instanceof SharedArrayBuffer
         ? pool.run<GridResolution>('budgetGridResolution', [cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj, new Float32Array(new SharedArrayBuffer(cloud.density.length * 4))])
@@ -157,20 +159,23 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       const plotsP = buildGridPlots(cloud, resP, nj, undefined, pool);
       plotsP.catch(() => {}); // awaited below; a failure is reported there
       budget = budgetForConfig(config);
+      // the grid files are written in the background while the survey runs (no bar: the survey's show)
       const t = performance.now();
       mkdirSync(runDir, { recursive: true });
-      await writeGridExports(cloud, path.join(runDir, 'ic'), {
+      icWrite = writeGridExports(cloud, path.join(runDir, 'ic'), {
         formats: ex.formats, precision: ex.precision, units: ex.units, codeUnits: { length: ex.code_units.length, mass: ex.code_units.mass },
         thermalField: ex.thermal_field, particles: ex.particles ?? null, force: opts.force, mu: cloud.summary.mu,
-      }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, progress);
-      files.push('ic/manifest.json');
-      timings.write_ic = (performance.now() - t) / 1000;
+      }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, silentProgress)
+        .then(() => { timings.write_ic = (performance.now() - t) / 1000; });
+      icWrite.catch(() => {}); // awaited after the survey; a failure is reported there
       gridRes = await resP;
       gridPlots = await plotsP;
     };
     const { cloud, survey, seconds } = await generateAndSurvey(config, pool, progress, config.seed, cells, lane, whileTree);
     Object.assign(timings, seconds);
     for (const [k, v] of Object.entries(survey.timings)) timings[`survey_${k}`] = v;
+    await icWrite;
+    files.push('ic/manifest.json');
     if (!gridRes || !budget || !gridPlots) throw new Error('plan: the grid outputs were not made');
     const res = gridRes, bud = budget;
 
