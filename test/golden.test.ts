@@ -23,15 +23,26 @@ function sha(file: string): string {
   return createHash('sha256').update(data).digest('hex');
 }
 
+/** Checksums of every output of a 32^3 plan (seed 11) run with the given extra options. */
+function planChecksums(extra: string[]): Record<string, string> {
+  const out = path.join(mkdtempSync(path.join(tmpdir(), 'fragplan-golden-')), 'run');
+  const r = fragplan(['plan', 'presets/massive-clump.yaml', '--cells', '32', '--seed', '11', '--out', out, '--quiet', ...extra]);
+  expect(r.status).toBe(0);
+  const files = ['summary.json', 'tree.json', 'fragments.csv', ...readdirSync(path.join(out, 'ic')).filter((f) => f.endsWith('.npy')).map((f) => `ic/${f}`)].sort();
+  return Object.fromEntries(files.map((f) => [f, sha(path.join(out, f))]));
+}
+
 describe('golden 32^3 plan', () => {
   it('gives the recorded bytes for every output', () => {
-    const out = path.join(mkdtempSync(path.join(tmpdir(), 'fragplan-golden-')), 'run');
-    const r = fragplan(['plan', 'presets/massive-clump.yaml', '--cells', '32', '--seed', '11', '--out', out, '--quiet']);
-    expect(r.status).toBe(0);
-    const files = ['summary.json', 'tree.json', 'fragments.csv', ...readdirSync(path.join(out, 'ic')).filter((f) => f.endsWith('.npy')).map((f) => `ic/${f}`)].sort();
-    const got = Object.fromEntries(files.map((f) => [f, sha(path.join(out, f))]));
+    const got = planChecksums([]);
     if (process.env.FRAGPLAN_RECORD_GOLDEN === '1') writeFileSync(GOLDEN, `${JSON.stringify(got, null, 2)}\n`);
     const want = JSON.parse(readFileSync(GOLDEN, 'utf8')) as Record<string, string>;
     expect(got).toEqual(want);
+  });
+
+  it('gives the same bytes on one thread (no pool, tree built inline) as with workers and the tree on its own worker', () => {
+    const want = JSON.parse(readFileSync(GOLDEN, 'utf8')) as Record<string, string>;
+    expect(planChecksums(['--workers', '1'])).toEqual(want);
+    expect(planChecksums(['--workers', '3'])).toEqual(want);
   });
 });

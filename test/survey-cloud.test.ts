@@ -135,3 +135,33 @@ describe('surveyCloud over a worker pool', () => {
     }
   });
 });
+
+describe('merge tree on its own worker', () => {
+  it('gives the same tree, labels and survey as the inline build (needs the built dist/worker.js)', async () => {
+    const { createPool } = await import('../src/grid/pool.js');
+    const { startMergeTree } = await import('../src/survey/tree-task.js');
+    const n = 32, dx = 1e16, rho = 1e-17;
+    let s = 5;
+    // the density on shared memory, as the generator leaves it when it runs on a pool
+    const d = new Float32Array(new SharedArrayBuffer(4 * n ** 3));
+    for (let c = 0; c < d.length; c++) { s = (Math.imul(s, 1664525) + 1013904223) >>> 0; d[c] = rho * (0.2 + (s / 2 ** 32) ** 4 * 5); }
+    const input = { grid: { nx: n, ny: n, nz: n, boxSize: n * dx }, density: d, temperature: T, mu: MU };
+    const opts = { ...base, floorDensity: rho, minCells: 2, minContrast: 0.1 };
+    const inline = await surveyCloud(input, opts);
+    const lane = createPool(1);
+    try {
+      const pending = startMergeTree(d, input.grid, opts, lane);
+      expect(pending.running).not.toBeNull();
+      const viaWorker = await surveyCloud(input, opts, undefined, null, pending);
+      expect(inline.nodes.length).toBeGreaterThan(3);
+      expect(viaWorker.labels.buffer).toBeInstanceOf(SharedArrayBuffer);
+      expect(Buffer.compare(Buffer.from(viaWorker.labels.buffer as SharedArrayBuffer), Buffer.from(inline.labels.buffer))).toBe(0);
+      expect(JSON.stringify(viaWorker.nodes)).toBe(JSON.stringify(inline.nodes));
+      // a tree started on another cube, or with another floor, is refused
+      await expect(surveyCloud({ ...input, density: d.slice() }, opts, undefined, null, pending)).rejects.toThrow(/another density cube/);
+      await expect(surveyCloud(input, { ...opts, floorDensity: 2 * rho }, undefined, null, pending)).rejects.toThrow(/floor/);
+    } finally {
+      await lane.close();
+    }
+  });
+});
