@@ -88,6 +88,12 @@ interface ZeroCache { bits: Int32Array[]; outs: Float64Array[] }
 const zeroCaches = new Map<string, ZeroCache>();
 const ZERO_CACHE_MAX = 16;
 
+/** True when every value of line is +0 (not -0). */
+function allPositiveZero(line: Float64Array): boolean {
+  for (let q = 0; q < line.length; q++) if (line[q] !== 0 || 1 / line[q]! < 0) return false;
+  return true;
+}
+
 /** True when every value of line is +0 or -0. */
 function allZero(line: Float64Array): boolean {
   for (let q = 0; q < line.length; q++) if (line[q] !== 0) return false;
@@ -120,7 +126,8 @@ function constantLineTransform(p: FFT, n: number, inverse: boolean, re: number, 
  * before the axis-0 pass (as modes.ts leaves a band-limited spectrum). Then the axis-0 lines with
  * |ky| > band or kz > band, and the axis-1 lines with kz > band that such an axis-0 pass (same
  * direction, same band) produced, are not read: their known input is transformed once and
- * written. Same bytes as without the hint; pass it only when the promise holds.
+ * written (not even written when it is +0 throughout, as it is for fft.js: the spectrum already
+ * holds +0 there). Same bytes as without the hint; pass it only when the promise holds.
  */
 export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, start = 0, end = axisLineCount(g, axis), band = Infinity): void {
   const { nx, ny } = g;
@@ -152,7 +159,6 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
     const kz0 = line - outer * nh;
     const count = Math.min(BLOCK, end - line, nh - kz0);
     const base = axis === 0 ? (outer * nh + kz0) * 2 : (outer * ny * nh + kz0) * 2;
-    const w = 2 * count;
     // lines kz >= firstKnown of this block have a known input (count: none)
     let firstKnown = count;
     let known: Float64Array | null = null;
@@ -178,7 +184,10 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
         }
       }
     }
-    for (let b = firstKnown; b < count; b++) outs[b]!.set(known!);
+    // a known output of +0 everywhere equals what the spectrum already holds there (+0 in, +0 out):
+    // those lines are neither copied nor written back
+    const written = firstKnown < count && known !== null && allPositiveZero(known) ? firstKnown : count;
+    for (let b = firstKnown; b < written; b++) outs[b]!.set(known!);
     for (let b = 0; b < firstKnown; b++) {
       const src = ins[b]!, dst = outs[b]!;
       const e = findCached(cache, inBits, 2 * b * LS, 2 * n2);
@@ -190,10 +199,13 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
         cache.outs.push(dst.slice());
       }
     }
-    for (let a = 0, o = base; a < n; a++, o += stride) {
-      for (let q = 0, t = 2 * a; q < w; q += 2, t += LS) {
-        spec[o + q] = outBlock[t]!;
-        spec[o + q + 1] = outBlock[t + 1]!;
+    const ww = 2 * written;
+    if (ww > 0) {
+      for (let a = 0, o = base; a < n; a++, o += stride) {
+        for (let q = 0, t = 2 * a; q < ww; q += 2, t += LS) {
+          spec[o + q] = outBlock[t]!;
+          spec[o + q + 1] = outBlock[t + 1]!;
+        }
       }
     }
     line += count;
