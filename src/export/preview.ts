@@ -9,6 +9,7 @@
  * DEFLATE at a fixed level.
  */
 import JSZip from 'jszip';
+import { zipArchive, type ZipEntry } from './zip-writer.js';
 import { readFileSync, statSync } from 'node:fs';
 import type { Cloud } from '../generate/cloud.js';
 import { PC } from '../physics/constants.js';
@@ -111,18 +112,18 @@ export async function writePreview(zipPath: string, parts: PreviewParts, force: 
     tool_version: parts.toolVersion,
     seed: parts.cloud.seed,
   };
-  const zip = new JSZip();
-  const add = (name: string, data: string | Uint8Array): void => { zip.file(name, data, { date: ZIP_DATE, createFolders: false }); };
-  add('preview.json', JSON.stringify(manifest, null, 2) + '\n');
-  add('density.f32', littleEndianBytes(ds.density));
-  add('jeans.f32', littleEndianBytes(ds.jeans));
-  add('labels.i32', littleEndianBytes(ds.labels));
-  if (particles) add('particles.f32', littleEndianBytes(particles));
-  add('summary.json', JSON.stringify(parts.summary, null, 2) + '\n');
-  add('tree.json', JSON.stringify(parts.tree, null, 2) + '\n');
-  add('fragments.csv', parts.fragmentsCsv);
-  add('plots.json', JSON.stringify(parts.plots) + '\n');
-  const bytes = await zip.generateAsync({ type: 'uint8array', compression: 'DEFLATE', compressionOptions: { level: 6 }, platform: 'DOS' });
+  const entries: ZipEntry[] = [
+    { name: 'preview.json', data: JSON.stringify(manifest, null, 2) + '\n' },
+    { name: 'density.f32', data: littleEndianBytes(ds.density) },
+    { name: 'jeans.f32', data: littleEndianBytes(ds.jeans) },
+    { name: 'labels.i32', data: littleEndianBytes(ds.labels) },
+    ...(particles ? [{ name: 'particles.f32', data: littleEndianBytes(particles) }] : []),
+    { name: 'summary.json', data: JSON.stringify(parts.summary, null, 2) + '\n' },
+    { name: 'tree.json', data: JSON.stringify(parts.tree, null, 2) + '\n' },
+    { name: 'fragments.csv', data: parts.fragmentsCsv },
+    { name: 'plots.json', data: JSON.stringify(parts.plots) + '\n' },
+  ];
+  const bytes = zipArchive(entries, ZIP_DATE, 6);
   return writeFileAtomic(zipPath, bytes, force);
 }
 
