@@ -74,9 +74,19 @@ program
   .option('--force', 'replace the files of an existing run')
   .option('--quiet', 'no progress bars or messages')
   .action(runCommand(async (file: string, opts: CommonOpts & { workers?: number; realizations?: number }) => {
+    // start the worker threads first: they boot while the pipeline and the config load
+    const { startPlanPools, closePlanPools } = await import('./pipeline/plan-pools.js');
+    const { defaultWorkerCount } = await import('./grid/pool.js');
+    const pools = startPlanPools(opts.workers ?? defaultWorkerCount());
+    let loaded;
+    try {
+      loaded = loadConfig(file);
+    } catch (e) {
+      await closePlanPools(pools);
+      throw e;
+    }
     const { runPlan } = await import('./pipeline/plan.js');
-    const loaded = loadConfig(file);
-    const r = await runPlan(loaded, { ...opts, force: !!opts.force, progress: terminalProgress(!!opts.quiet || !!opts.json) });
+    const r = await runPlan(loaded, { ...opts, force: !!opts.force, progress: terminalProgress(!!opts.quiet || !!opts.json), pools });
     if (opts.json) return printJson(r.summary);
     const { terminalSummary } = await import('./report/terminal-summary.js');
     print(terminalSummary(r.summary));

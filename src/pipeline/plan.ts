@@ -12,7 +12,8 @@ import type { LoadedConfig } from '../config/load.js';
 import type { Config } from '../config/schema.js';
 import type { Cloud } from '../generate/cloud.js';
 import { generateCloud, estimateGenerateBytes } from '../generate/generate-cloud.js';
-import { createPool, defaultWorkerCount, type WorkerPool } from '../grid/pool.js';
+import { defaultWorkerCount, type WorkerPool } from '../grid/pool.js';
+import { closePlanPools, planPools, type PlanPools } from './plan-pools.js';
 import { isPowerOfTwo, volumeIntegral } from '../grid/grid3.js';
 import { InputError } from '../input-error.js';
 import { surveyCloud } from '../survey/survey-cloud.js';
@@ -44,6 +45,8 @@ export interface PlanOptions {
   realizations?: number;
   force: boolean;
   progress?: ProgressSink;
+  /** Threads started early (see plan-pools.ts); used when they match the worker count, closed in any case. */
+  pools?: PlanPools;
 }
 
 /** What a plan run returns: the summary, where it wrote, and the pieces for the terminal. */
@@ -128,17 +131,16 @@ export function boundButStableWarnings(survey: SurveyResult): string[] {
 /** Runs the whole plan: generate, survey, budget, write every output. */
 export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<PlanResult> {
   const progress = opts.progress ?? silentProgress;
-  const config = effectiveConfig(loaded.config, opts);
   const runDir = opts.out ?? defaultRunDir(loaded.name);
-  assertRunDirUsable(runDir, opts.force);
-  const cells = config.grid.cells;
-  assertFits(`plan at ${cells}^3`, estimateGenerateBytes(config, cells) + estimateSurveyBytes(cells));
-
-  const workers = config.grid.workers ?? defaultWorkerCount();
-  const pool = workers > 1 ? createPool(workers) : null;
-  // the merge tree's own worker: it runs beside the generator's pool (see generateAndSurvey)
-  const lane = pool ? createPool(1) : null;
+  let threads = opts.pools;
   try {
+    const config = effectiveConfig(loaded.config, opts);
+    assertRunDirUsable(runDir, opts.force);
+    const cells = config.grid.cells;
+    assertFits(`plan at ${cells}^3`, estimateGenerateBytes(config, cells) + estimateSurveyBytes(cells));
+    // the pool for the grid work and the merge tree's own worker beside it (see generateAndSurvey)
+    threads = await planPools(config.grid.workers ?? defaultWorkerCount(), opts.pools);
+    const { pool, lane } = threads;
     const timings: Record<string, number> = {};
     const nj = config.budget.grid.cells_per_jeans_length;
     const ex = config.export;
@@ -219,6 +221,6 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     put('summary.json', jsonText(summary));
     return { summary, plots, runDir, files, budget: bud, gridResolution: res };
   } finally {
-    await Promise.all([pool?.close(), lane?.close()]);
+    if (threads) await closePlanPools(threads);
   }
 }
