@@ -108,9 +108,26 @@ function toCoarse(box: Box, dx: number): CoarseMass {
   return { g, factor, side: factor * dx, mass, occupied };
 }
 
+/** Grid indices and densities (g/cm^3) of the cells `cells` (flat indices), in that order; on shared memory when `shared`. */
+export function listedCells(cells: Int32Array, density: Float32Array, shape: { ny: number; nz: number }, shared = false): CellSet {
+  const m = cells.length;
+  const ints = (): Int32Array => (shared ? new Int32Array(new SharedArrayBuffer(4 * m)) : new Int32Array(m));
+  const all: CellSet = { i: ints(), j: ints(), k: ints(), rho: shared ? new Float32Array(new SharedArrayBuffer(4 * m)) : new Float32Array(m) };
+  const nyz = shape.ny * shape.nz;
+  for (let p = 0; p < m; p++) {
+    const c = cells[p]!;
+    const i = Math.floor(c / nyz), r = c - i * nyz, j = Math.floor(r / shape.nz);
+    all.i[p] = i;
+    all.j[p] = j;
+    all.k[p] = r - j * shape.nz;
+    all.rho[p] = density[c]!;
+  }
+  return all;
+}
+
 type Job = { kind: 'adaptive'; id: number; grid: CoarseMass } | { kind: 'terms'; id: number; grids: CoarseMass[]; children: number };
 
-/** Computes the gravitational energy of every node; spreads the sums over the pool when given. */
+/** Computes the gravitational energy (erg) of every node; spreads the sums over the pool when given; `listed`: listedCells of lists.cells, if already made. */
 export async function nodeGravity(
   tree: MergeTree,
   lists: { cells: Int32Array; start: Int32Array; end: Int32Array },
@@ -121,23 +138,14 @@ export async function nodeGravity(
   tolerance: number,
   pool: WorkerPool | null,
   onDone: (done: number) => void = () => {},
+  listed?: CellSet,
 ): Promise<NodeGravity> {
   const n = tree.count;
   const out: NodeGravity = { energy: new Float64Array(n), factor: new Int32Array(n), cellsPerSide: new Int32Array(n), relativeError: new Float64Array(n) };
   const corrF = new Float64Array(n), corr2F = new Float64Array(n), isTerms = new Uint8Array(n);
   const vol = dx * dx * dx;
   // coordinates and densities of the listed cells, once, so deposits need no index arithmetic
-  const m = lists.cells.length;
-  const all: CellSet = { i: new Int32Array(m), j: new Int32Array(m), k: new Int32Array(m), rho: new Float32Array(m) };
-  const nyz = shape.ny * shape.nz;
-  for (let p = 0; p < m; p++) {
-    const c = lists.cells[p]!;
-    const i = Math.floor(c / nyz), r = c - i * nyz, j = Math.floor(r / shape.nz);
-    all.i[p] = i;
-    all.j[p] = j;
-    all.k[p] = r - j * shape.nz;
-    all.rho[p] = density[c]!;
-  }
+  const all = listed ?? listedCells(lists.cells, density, shape);
   const cellsOf = (id: number): CellSet => {
     const a = lists.start[id]!, b = lists.end[id]!;
     return { i: all.i.subarray(a, b), j: all.j.subarray(a, b), k: all.k.subarray(a, b), rho: all.rho.subarray(a, b) };

@@ -4,7 +4,8 @@
  * the outputs that do not need the tree); the survey awaits it. The worker runs the same
  * buildMergeTree on the same shared density, so the tree and the labels are those of an inline
  * build. Without a worker (one thread, or a density not on shared memory) the tree is built
- * inline when awaited.
+ * inline when awaited. After the tree the same worker lists each node's cells (listedCellsTask)
+ * while the main thread sums the node moments.
  */
 import type { WorkerPool } from '../grid/pool.js';
 import type { Grid3 } from '../grid/grid3.js';
@@ -12,6 +13,9 @@ import { cellCount, cellVolume } from '../grid/grid3.js';
 import type { ProgressSink } from '../progress.js';
 import { buildMergeTree, type MergeTree, type TreeLimits } from './merge-tree.js';
 import type { SurveyOptions } from './types.js';
+import { nodeCellLists } from './node-moments.js';
+import { listedCells } from './node-gravity.js';
+import type { CellSet } from './self-gravity.js';
 
 /** A merge tree being built (or to be built inline): the floor it uses and how to get it. */
 export interface PendingTree {
@@ -26,6 +30,24 @@ export interface PendingTree {
   readonly counter: Int32Array | null;
   /** Inline build: the arguments. */
   readonly build: { grid: Grid3; connectivity: 6 | 26; limits: TreeLimits; cellVolume: number };
+  /** The worker the tree is built on (free again once it is done), or null. */
+  readonly lane: WorkerPool | null;
+}
+
+/** Per-node cell lists (see nodeCellLists) and the listed cells' indices and densities, on shared memory. */
+export interface ListedCells {
+  readonly lists: { cells: Int32Array; start: Int32Array; end: Int32Array };
+  readonly listed: CellSet;
+}
+
+/** The worker task after the tree: nodeCellLists and listedCells of a tree's labels, the lists copied to shared memory. */
+export function listedCellsTask(
+  labels: Int32Array, parent: Int32Array, children: number[][], roots: number[], density: Float32Array, shape: { ny: number; nz: number },
+): ListedCells {
+  const l = nodeCellLists(labels, parent, children, roots);
+  const cells = new Int32Array(new SharedArrayBuffer(4 * l.cells.length));
+  cells.set(l.cells);
+  return { lists: { cells, start: l.start, end: l.end }, listed: listedCells(cells, density, shape, true) };
 }
 
 /** Density floor of the survey, g/cm^3: options.floorDensity, or the cube's mean density when that is not a finite number >= 0. */
@@ -55,7 +77,7 @@ export function startMergeTree(density: Float32Array, grid: Grid3, options: Surv
     grid, connectivity: options.connectivity, cellVolume: cellVolume(grid),
     limits: { minCells: options.minCells, minContrast: options.minContrast, minMass: options.minMass },
   };
-  if (!lane || !(density.buffer instanceof SharedArrayBuffer)) return { density, floor, floorRule: rule, running: null, counter: null, build };
+  if (!lane || !(density.buffer instanceof SharedArrayBuffer)) return { density, floor, floorRule: rule, running: null, counter: null, build, lane: null };
   const labels = new Int32Array(new SharedArrayBuffer(cellCount(grid) * 4));
   const counter = new Int32Array(new SharedArrayBuffer(8));
   const shape = { nx: grid.nx, ny: grid.ny, nz: grid.nz };
@@ -64,7 +86,7 @@ export function startMergeTree(density: Float32Array, grid: Grid3, options: Surv
     .then((tree) => ({ tree, seconds: (performance.now() - t0) / 1000 }));
   // an unawaited failure is reported when awaited; do not let it surface as an unhandled rejection first
   running.catch(() => {});
-  return { density, floor, floorRule: rule, running, counter, build };
+  return { density, floor, floorRule: rule, running, counter, build, lane };
 }
 
 /** Waits for (or builds) the pending tree, showing its progress as the stage 'survey: merge tree'; seconds is the build's wall time. */
