@@ -170,13 +170,19 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, silentProgress)
         .then(() => { timings.write_ic = (performance.now() - t) / 1000; });
       icWrite.catch(() => {}); // awaited after the survey; a failure is reported there
+      const st = progress.stage('report: grid plots', 1);
       gridRes = await resP;
       gridPlots = await plotsP;
+      st.update(1);
+      st.stop();
     };
     const { cloud, survey, seconds } = await generateAndSurvey(config, pool, progress, config.seed, cells, lane, whileTree);
     Object.assign(timings, seconds);
     for (const [k, v] of Object.entries(survey.timings)) timings[`survey_${k}`] = v;
+    const sw = progress.stage('writing grids', 1);
     await icWrite;
+    sw.update(1);
+    sw.stop();
     files.push('ic/manifest.json');
     if (!gridRes || !budget || !gridPlots) throw new Error('plan: the grid outputs were not made');
     const res = gridRes, bud = budget;
