@@ -127,6 +127,22 @@ export function listedCells(cells: Int32Array, density: Float32Array, shape: { n
 
 type Job = { kind: 'adaptive'; id: number; grid: CoarseMass } | { kind: 'terms'; id: number; grids: CoarseMass[]; children: number };
 
+/** A job as sent to a worker: one coarse grid summed adaptively, or the grids of a parent's interaction terms. */
+export type GravityJobData = { adaptive: CoarseMass } | { terms: CoarseMass[] };
+
+/** Coarse cells per batch message, and jobs at most. */
+const BATCH_CELLS = 1 << 16;
+const BATCH_JOBS = 64;
+
+function jobData(job: Job): GravityJobData {
+  return job.kind === 'adaptive' ? { adaptive: job.grid } : { terms: job.grids };
+}
+
+/** The worker task: each job's result (adaptiveSelfEnergy, erg with its error; or coarseEnergies, erg), in order. */
+export function gravityBatch(jobs: readonly GravityJobData[], tolerance: number): Array<GravityEstimate | number[]> {
+  return jobs.map((j) => ('adaptive' in j ? adaptiveSelfEnergy(j.adaptive, tolerance) : coarseEnergies(j.terms)));
+}
+
 /** Computes the gravitational energy (erg) of every node; spreads the sums over the pool when given; `listed`: listedCells of lists.cells, if already made. */
 export async function nodeGravity(
   tree: MergeTree,
@@ -239,17 +255,31 @@ export async function nodeGravity(
     onDone(++done);
   };
   if (pool && pool.size >= 2) {
+    // small jobs go to the workers in batches (one message per BATCH_CELLS coarse cells or
+    // BATCH_JOBS jobs): the round trip of a message costs more than a small node's sum
     const window = 2 * pool.size;
     const inFlight = new Set<Promise<void>>();
+    let batch: Job[] = [];
+    let batchCells = 0;
+    const flush = (): void => {
+      if (batch.length === 0) return;
+      const jobs = batch;
+      batch = [];
+      batchCells = 0;
+      const p: Promise<void> = pool.run<Array<GravityEstimate | number[]>>('surveyGravityBatch', [jobs.map(jobData), tolerance])
+        .then((values) => { jobs.forEach((job, q) => finish(job, values[q]!)); inFlight.delete(p); });
+      inFlight.add(p);
+    };
     for (let id = 0; id < n; id++) {
       const job = makeJob(id);
-      const p: Promise<void> = (job.kind === 'adaptive'
-        ? pool.run<GravityEstimate>('surveyNodeSelfEnergy', [job.grid, tolerance])
-        : pool.run<number[]>('surveyCoarseEnergies', [job.grids])
-      ).then((v) => { finish(job, v); inFlight.delete(p); });
-      inFlight.add(p);
-      if (inFlight.size >= window) await Promise.race(inFlight);
+      batch.push(job);
+      batchCells += job.kind === 'adaptive' ? job.grid.g ** 3 : job.grids.reduce((a, c) => a + c.g ** 3, 0);
+      if (batchCells >= BATCH_CELLS || batch.length >= BATCH_JOBS) {
+        flush();
+        if (inFlight.size >= window) await Promise.race(inFlight);
+      }
     }
+    flush();
     await Promise.all(inFlight);
   } else {
     for (let id = 0; id < n; id++) {
