@@ -12,7 +12,7 @@ import type { SurveyInput, SurveyOptions, SurveyResult } from './types.js';
 import type { WorkerPool } from '../grid/pool.js';
 import { cellCount, cellSize, cellVolume } from '../grid/grid3.js';
 import { silentProgress, type ProgressSink } from '../progress.js';
-import { startMergeTree, awaitMergeTree, type PendingTree, type ListedCells } from './tree-task.js';
+import { startMergeTree, awaitMergeTree, type PendingTree } from './tree-task.js';
 import { nodeMoments, nodeCellLists, CH, NODE_CHANNELS } from './node-moments.js';
 import { nodeGravity, type NodeGravity } from './node-gravity.js';
 import { nodeVerdicts, EXPECTED_RULE } from './node-verdicts.js';
@@ -62,12 +62,6 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
   const tree = built.tree;
   timings.tree = built.seconds;
 
-  // the tree's worker (when it had one) lists each node's cells meanwhile
-  const onShared = (a: { buffer: ArrayBufferLike }): boolean => a.buffer instanceof SharedArrayBuffer;
-  const laneLists = pendingTree.lane && tree.count > 0 && onShared(tree.labels) && onShared(input.density)
-    ? pendingTree.lane.run<ListedCells>('surveyListedCells', [tree.labels, tree.parent, tree.children, tree.roots, input.density, { ny: g.ny, nz: g.nz }])
-    : null;
-  laneLists?.catch(() => {}); // awaited below
   let t = now();
   const sums = nodeMoments(input, tree.labels, tree.parent);
   timings.moments = now() - t;
@@ -76,7 +70,8 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
   const tolerance = options.gravityTolerance ?? 0.01;
   let gravity: NodeGravity = { energy: new Float64Array(0), factor: new Int32Array(0), cellsPerSide: new Int32Array(0), relativeError: new Float64Array(0) };
   if (tree.count > 0) {
-    const made = laneLists ? await laneLists : null;
+    // the tree's worker (when it had one) listed each node's cells already
+    const made = built.listed;
     const lists = made ? made.lists : nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots);
     const sg = progress.stage('survey: self-gravity', tree.count);
     gravity = await nodeGravity(tree, lists, input.density, g, dx, options.gravityCells, tolerance, pool, (d) => sg.update(d), made?.listed);

@@ -4,8 +4,8 @@
  * the outputs that do not need the tree); the survey awaits it. The worker runs the same
  * buildMergeTree on the same shared density, so the tree and the labels are those of an inline
  * build. Without a worker (one thread, or a density not on shared memory) the tree is built
- * inline when awaited. After the tree the same worker lists each node's cells (listedCellsTask)
- * while the main thread sums the node moments.
+ * inline when awaited. After the tree the same worker lists each node's cells (listTreeCells),
+ * which the self-gravity needs, while the main thread is still busy with other outputs.
  */
 import type { WorkerPool } from '../grid/pool.js';
 import type { Grid3 } from '../grid/grid3.js';
@@ -24,14 +24,19 @@ export interface PendingTree {
   /** Density floor, g/cm^3, and how it was chosen. */
   readonly floor: number;
   readonly floorRule: string;
-  /** Worker build: resolves with the tree and its wall time (s); null for an inline build. */
-  readonly running: Promise<{ tree: MergeTree; seconds: number }> | null;
+  /** Worker build: resolves with the tree, its wall time (s) and the nodes' cell lists; null for an inline build. */
+  readonly running: Promise<BuiltTree> | null;
   /** Worker build: [cells added, cells to add], written by the worker as it goes. */
   readonly counter: Int32Array | null;
   /** Inline build: the arguments. */
   readonly build: { grid: Grid3; connectivity: 6 | 26; limits: TreeLimits; cellVolume: number };
-  /** The worker the tree is built on (free again once it is done), or null. */
-  readonly lane: WorkerPool | null;
+}
+
+/** A finished tree: the tree, its build time (s), and (from a worker) the nodes' cell lists. */
+export interface BuiltTree {
+  readonly tree: MergeTree;
+  readonly seconds: number;
+  readonly listed: ListedCells | null;
 }
 
 /** Per-node cell lists (see nodeCellLists) and the listed cells' indices and densities, on shared memory. */
@@ -40,8 +45,8 @@ export interface ListedCells {
   readonly listed: CellSet;
 }
 
-/** The worker task after the tree: nodeCellLists and listedCells of a tree's labels, the lists copied to shared memory. */
-export function listedCellsTask(
+/** nodeCellLists and listedCells of a tree's labels (on the tree's worker), the lists copied to shared memory. */
+export function listTreeCells(
   labels: Int32Array, parent: Int32Array, children: number[][], roots: number[], density: Float32Array, shape: { ny: number; nz: number },
 ): ListedCells {
   const l = nodeCellLists(labels, parent, children, roots);
@@ -59,15 +64,20 @@ export function surveyFloor(density: Float32Array, options: Pick<SurveyOptions, 
   return { floor: s / density.length, rule: 'mean density of the cube (no floor or ambient density given)' };
 }
 
-/** The worker task: buildMergeTree writing labels into `labels` and its progress into `counter` (both shared). */
+/**
+ * The worker task: buildMergeTree writing labels into `labels` and its progress into `counter` (both
+ * shared), then each node's cell list and the listed cells' indices and densities (listTreeCells).
+ */
 export function mergeTreeTask(
   density: Float32Array, shape: { nx: number; ny: number; nz: number }, floor: number, connectivity: 6 | 26,
   limits: TreeLimits, vol: number, labels: Int32Array, counter: Int32Array,
-): MergeTree {
-  return buildMergeTree(density, shape, floor, connectivity, limits, vol, (done, total) => {
+): { tree: MergeTree; listed: ListedCells | null } {
+  const tree = buildMergeTree(density, shape, floor, connectivity, limits, vol, (done, total) => {
     Atomics.store(counter, 1, total);
     Atomics.store(counter, 0, done);
   }, labels);
+  const listed = tree.count > 0 ? listTreeCells(labels, tree.parent, tree.children, tree.roots, density, shape) : null;
+  return { tree, listed };
 }
 
 /** Starts the merge tree of `density` (g/cm^3) on `lane` (a pool whose worker nothing else uses), or prepares an inline build when lane is null. */
@@ -77,20 +87,20 @@ export function startMergeTree(density: Float32Array, grid: Grid3, options: Surv
     grid, connectivity: options.connectivity, cellVolume: cellVolume(grid),
     limits: { minCells: options.minCells, minContrast: options.minContrast, minMass: options.minMass },
   };
-  if (!lane || !(density.buffer instanceof SharedArrayBuffer)) return { density, floor, floorRule: rule, running: null, counter: null, build, lane: null };
+  if (!lane || !(density.buffer instanceof SharedArrayBuffer)) return { density, floor, floorRule: rule, running: null, counter: null, build };
   const labels = new Int32Array(new SharedArrayBuffer(cellCount(grid) * 4));
   const counter = new Int32Array(new SharedArrayBuffer(8));
   const shape = { nx: grid.nx, ny: grid.ny, nz: grid.nz };
   const t0 = performance.now();
-  const running = lane.run<MergeTree>('surveyMergeTree', [density, shape, floor, build.connectivity, build.limits, build.cellVolume, labels, counter])
-    .then((tree) => ({ tree, seconds: (performance.now() - t0) / 1000 }));
+  const running = lane.run<{ tree: MergeTree; listed: ListedCells | null }>('surveyMergeTree', [density, shape, floor, build.connectivity, build.limits, build.cellVolume, labels, counter])
+    .then((r) => ({ tree: r.tree, listed: r.listed, seconds: (performance.now() - t0) / 1000 }));
   // an unawaited failure is reported when awaited; do not let it surface as an unhandled rejection first
   running.catch(() => {});
-  return { density, floor, floorRule: rule, running, counter, build, lane };
+  return { density, floor, floorRule: rule, running, counter, build };
 }
 
 /** Waits for (or builds) the pending tree, showing its progress as the stage 'survey: merge tree'; seconds is the build's wall time. */
-export async function awaitMergeTree(pending: PendingTree, progress: ProgressSink): Promise<{ tree: MergeTree; seconds: number }> {
+export async function awaitMergeTree(pending: PendingTree, progress: ProgressSink): Promise<BuiltTree> {
   const st = progress.stage('survey: merge tree', 100);
   try {
     if (pending.running) {
@@ -109,7 +119,7 @@ export async function awaitMergeTree(pending: PendingTree, progress: ProgressSin
     const t0 = performance.now();
     const { grid, connectivity, limits, cellVolume: vol } = pending.build;
     const tree = buildMergeTree(pending.density, grid, pending.floor, connectivity, limits, vol, (done, total) => st.update(Math.floor((100 * done) / total)));
-    return { tree, seconds: (performance.now() - t0) / 1000 };
+    return { tree, seconds: (performance.now() - t0) / 1000, listed: null };
   } finally {
     st.stop();
   }
