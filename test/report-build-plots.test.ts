@@ -1,5 +1,11 @@
 import { describe, it, expect } from 'vitest';
-import { densityPdf, jeansHistogram, blockMean } from '../src/report/build-plots.js';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { densityPdf, jeansHistogram, blockMean, velocitySpectrum, SPECTRUM_ALIAS_LIMIT } from '../src/report/build-plots.js';
+import { loadConfig } from '../src/config/load.js';
+import { generateCloud } from '../src/generate/generate-cloud.js';
+import { encodeNpy } from '../src/export/npy.js';
 import { blockMeanTransfer2, vectorPowerSpectrum } from '../src/grid/spectrum.js';
 import { pythonJson } from './helpers/python.js';
 
@@ -84,5 +90,37 @@ describe('window compensation of the block-averaged spectrum', () => {
       expect(comp.energy[k - 1]! / fine.energy[k - 1]!).toBeCloseTo(1, 5);
       expect(h2[k]!).toBeLessThan(1);
     }
+  });
+});
+
+describe('report velocity spectrum', () => {
+  // Outside reference: numpy.fft.rfftn of the same velocity, shell-averaged the same way
+  // (|F|^2 / N^2 per mode, shells n - 1/2 <= |k| < n + 1/2, half-spectrum planes counted twice).
+  it('matches numpy at full resolution, and on block means (window-compensated, aliasing tail cut) within 5 %', async () => {
+    const loaded = loadConfig('presets/massive-clump.yaml');
+    const cloud = await generateCloud(loaded.config, { cells: 64, pool: null });
+    const dir = mkdtempSync(path.join(tmpdir(), 'fragplan-vspec-'));
+    cloud.velocity.forEach((v, a) => writeFileSync(path.join(dir, `v${a}.npy`), encodeNpy(v, [64, 64, 64])));
+    const ref = pythonJson<number[]>(`import numpy as np, json
+n = 64
+kx = np.fft.fftfreq(n, 1 / n); kz = np.arange(n // 2 + 1)
+K = np.sqrt(kx[:, None, None] ** 2 + kx[None, :, None] ** 2 + kz[None, None, :] ** 2)
+w = np.broadcast_to(np.where((kz == 0) | (kz == n // 2), 1.0, 2.0), K.shape)
+sh = np.floor(K + 0.5).astype(int); m = (sh > 0) & (sh <= n // 2)
+tot = np.zeros(n // 2 + 1)
+for a in range(3):
+    F = np.fft.rfftn(np.load(${JSON.stringify(dir)} + f'/v{a}.npy').astype(np.float64))
+    tot += np.bincount(sh[m], weights=(w * np.abs(F) ** 2 / n ** 6)[m], minlength=n // 2 + 1)
+cnt = np.bincount(sh[m], weights=w[m], minlength=n // 2 + 1)
+print(json.dumps([tot[s] / cnt[s] for s in range(1, n // 2 + 1)]))`);
+    const full = (await velocitySpectrum(cloud, null))!;
+    expect(full.cells).toBe(64);
+    full.k.forEach((k, i) => expect(full.power[i]! / ref[Math.round(k) - 1]!).toBeCloseTo(1, 6));
+    const coarse = (await velocitySpectrum(cloud, null, 32))!;
+    expect(coarse.cells).toBe(32);
+    const top = SPECTRUM_ALIAS_LIMIT * 16;
+    expect(Math.max(...coarse.k)).toBeLessThanOrEqual(top);
+    expect(coarse.k.length).toBeGreaterThan(8);
+    coarse.k.forEach((k, i) => expect(Math.abs(coarse.power[i]! / ref[Math.round(k) - 1]! - 1)).toBeLessThan(0.05));
   });
 });
