@@ -32,7 +32,7 @@ import { drawClumps, drawFractal } from './clumps.js';
 import { depositBlobs } from './deposit.js';
 import { applyAzimuthalMode, axisBasis } from './rotation.js';
 import { addRigidRotation, momentOfInertia, rawTurbulence, removeNetAngularMomentum, removeNetMomentum, scaleVelocity } from './velocity.js';
-import { cloudMass, rmsSpeed, scaleCloudMassCentre } from './moments.js';
+import { cloudMass, cloudMassCentre, rmsSpeed, scaleCloudCells } from './moments.js';
 import { magneticSetup } from './magnetic.js';
 import { summarise } from './summary.js';
 
@@ -167,8 +167,11 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
   const before = cloudMass(g, density, inside);
   const massCorrection = env.mass / before;
   notes.push(`mass correction: the gridded cloud density was multiplied by ${massCorrection.toFixed(6)} so that the cloud holds exactly ${(env.mass / M_SUN.value).toPrecision(6)} Msun`);
-  const { centre } = scaleCloudMassCentre(g, density, inside, massCorrection);
+  if (pool) await pool.runRanges('genScaleCloud', N, [density, inside, massCorrection]);
+  else scaleCloudCells(0, N, density, inside, massCorrection);
+  // the density is final: the caller may start on it (the merge tree) while the rest is made
   onDensity?.(density, g, dims.ambientDensity);
+  const { centre } = cloudMassCentre(g, density, inside);
 
   // 5. turbulence
   if (c.turbulence && sigma3D !== null) {

@@ -43,29 +43,9 @@ export function cloudMass(g: Grid3, density: Float32Array, inside: Uint8Array): 
   return m * cellVolume(g);
 }
 
-/**
- * Multiplies cloud cells (inside = 1) by factor and returns cloudMassCentre of the result
- * (g, cm), in one pass: the sums read the stored Float32 values in cell order.
- */
-export function scaleCloudMassCentre(g: Grid3, density: Float32Array, inside: Uint8Array, factor: number): { mass: number; centre: [number, number, number] } {
-  const { nx, ny, nz, boxSize: L } = g;
-  const xs = axisCentres(nx, L), ys = axisCentres(ny, L), zs = axisCentres(nz, L);
-  let m = 0, mx = 0, my = 0, mz = 0;
-  for (let i = 0, c = 0; i < nx; i++) {
-    for (let j = 0; j < ny; j++) {
-      for (let k = 0; k < nz; k++, c++) {
-        if (!inside[c]) continue;
-        const rho = Math.fround(density[c]! * factor);
-        density[c] = rho;
-        m += rho;
-        mx += rho * xs[i]!;
-        my += rho * ys[j]!;
-        mz += rho * zs[k]!;
-      }
-    }
-  }
-  const dv = cellVolume(g);
-  return { mass: m * dv, centre: m > 0 ? [mx / m, my / m, mz / m] : [0, 0, 0] };
+/** Multiplies cells [start, end) of density (g/cm^3) by factor where inside = 1, storing Float32 (a worker task: per cell, split-independent). */
+export function scaleCloudCells(start: number, end: number, density: Float32Array, inside: Uint8Array, factor: number): void {
+  for (let c = start; c < end; c++) if (inside[c]) density[c] = Math.fround(density[c]! * factor);
 }
 
 /** Sum of density x volume over all cells (cloud and ambient), g. */

@@ -6,6 +6,7 @@
 import { fillLogDensityModes, fillVelocityComponent } from './modes.js';
 import { applyLognormal, fillTemperature, gridEnvelope } from './cell-kernels.js';
 import { scaleVelocityCells } from './velocity.js';
+import { scaleCloudCells } from './moments.js';
 
 /** Task name -> function, for the worker registry. */
 export const GENERATE_TASKS = {
@@ -15,4 +16,5 @@ export const GENERATE_TASKS = {
   genLognormal: applyLognormal,
   genTemperature: fillTemperature,
   genScaleVelocity: scaleVelocityCells,
+  genScaleCloud: scaleCloudCells,
 } as const;
