@@ -8,7 +8,7 @@
  * Bytes are deterministic: entries in a fixed order, every entry dated 1980-01-01T00:00:00Z,
  * DEFLATE at a fixed level.
  */
-import JSZip from 'jszip';
+import type JSZip from 'jszip';
 import { zipArchive, type ZipEntry } from './zip-writer.js';
 import { readFileSync, statSync } from 'node:fs';
 import type { Cloud } from '../generate/cloud.js';
@@ -157,7 +157,9 @@ export async function readPreview(zipPath: string): Promise<PreviewBundle> {
   try { size = statSync(zipPath).size; } catch { throw bad('no such file'); }
   if (size > PREVIEW_LIMITS.zipBytes) throw bad(`${size} bytes is larger than the ${PREVIEW_LIMITS.zipBytes}-byte limit`);
   let zip: JSZip;
-  try { zip = await JSZip.loadAsync(readFileSync(zipPath)); } catch { throw bad('not a readable zip file'); }
+  // loaded here only: writing a plan does not need the zip reader
+  const { default: Zip } = await import('jszip');
+  try { zip = await Zip.loadAsync(readFileSync(zipPath)); } catch { throw bad('not a readable zip file'); }
   const entries: Record<string, JSZip.JSZipObject> = {};
   for (const [name, entry] of Object.entries(zip.files)) {
     if (entry.dir || name.includes('/') || name.includes('\\') || name.includes('..') || name.includes('\0') || !ALLOWED.has(name)) {
