@@ -75,13 +75,14 @@ export function effectiveConfig(config: Config, opts: Pick<PlanOptions, 'cells' 
 /**
  * Generates and surveys one cloud (used by plan, ensembles and the ladder). With `lane` (a one-worker
  * pool nothing else uses) the merge tree is built there from the moment the density is final, while the
- * generator makes the velocity and, once the cloud is done, `whileTree` does main-thread work on it.
- * Timings: generate (s), whileTree (s, when given), survey (s, from the end of whileTree; the tree's own
- * build time, overlapping the others, is in the survey's timings).
+ * generator makes the velocity. Once the cloud is done, `beside` (work on the cloud that does not need
+ * the survey) runs beside the survey; both are awaited. Timings: generate (s), beside (s, when given),
+ * survey (s, from the end of the generation; the tree's own build time, overlapping the others, is in
+ * the survey's timings).
  */
 export async function generateAndSurvey(
   config: Config, pool: WorkerPool | null, progress: ProgressSink, seed = config.seed, cells = config.grid.cells,
-  lane: WorkerPool | null = null, whileTree?: (cloud: Cloud) => Promise<void>,
+  lane: WorkerPool | null = null, beside?: (cloud: Cloud) => Promise<void>,
 ): Promise<{ cloud: Cloud; survey: SurveyResult; seconds: Record<string, number> }> {
   const t0 = performance.now();
   let pending: PendingTree | undefined;
@@ -93,11 +94,8 @@ export async function generateAndSurvey(
   });
   const t1 = performance.now();
   const seconds: Record<string, number> = { generate: (t1 - t0) / 1000 };
-  if (whileTree) {
-    await whileTree(cloud);
-    seconds.while_tree = (performance.now() - t1) / 1000;
-  }
-  const t2 = performance.now();
+  const side = beside ? beside(cloud).then(() => { seconds.beside = (performance.now() - t1) / 1000; }) : Promise.resolve();
+  side.catch(() => {}); // awaited below; a failure is reported there
   const s = cloud.summary;
   const options = surveyOptionsFromConfig(config, { ambientDensity: s.ambientDensity, mach: s.mach, velocitySpectrumIndex: s.velocitySpectrumIndex });
   const survey = await surveyCloud(
@@ -107,7 +105,13 @@ export async function generateAndSurvey(
     pool,
     pending,
   );
-  seconds.survey = (performance.now() - t2) / 1000;
+  seconds.survey = (performance.now() - t1) / 1000;
+  if (beside) {
+    const st = progress.stage('grid outputs', 1);
+    await side;
+    st.update(1);
+    st.stop();
+  }
   return { cloud, survey, seconds };
 }
 
@@ -149,11 +153,11 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     let budget: BudgetResult | undefined;
     let gridPlots: GridPlots | undefined;
     let icWrite: Promise<void> | undefined;
-    // Work on the finished cloud that does not need the survey, done while the tree is built:
-    // the grid's Jeans numbers and the budget, the grid plots; the initial-condition files are
-    // started here and finish while the survey runs.
-    const whileTree = async (cloud: Cloud): Promise<void> => {
-      // Jeans numbers and histograms on the pool (into shared memory), beside the tree
+    // Work on the finished cloud that does not need the survey, done beside it (see
+    // generateAndSurvey): the grid's Jeans numbers and the budget, the grid plots; the
+    // initial-condition files are started here and awaited after the survey.
+    const beside = async (cloud: Cloud): Promise<void> => {
+      // Jeans numbers and histograms on the pool (into shared memory)
       const eos = eosFromConfig(config);
       const resP = pool && cloud.density.buffer instanceof SharedArrayBuffer
         ? pool.run<GridResolution>('budgetGridResolution', [cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj, new Float32Array(new SharedArrayBuffer(cloud.density.length * 4))])
@@ -170,13 +174,10 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, silentProgress)
         .then(() => { timings.write_ic = (performance.now() - t) / 1000; });
       icWrite.catch(() => {}); // awaited after the survey; a failure is reported there
-      const st = progress.stage('report: grid plots', 1);
       gridRes = await resP;
       gridPlots = await plotsP;
-      st.update(1);
-      st.stop();
     };
-    const { cloud, survey, seconds } = await generateAndSurvey(config, pool, progress, config.seed, cells, lane, whileTree);
+    const { cloud, survey, seconds } = await generateAndSurvey(config, pool, progress, config.seed, cells, lane, beside);
     Object.assign(timings, seconds);
     for (const [k, v] of Object.entries(survey.timings)) timings[`survey_${k}`] = v;
     const sw = progress.stage('writing grids', 1);
