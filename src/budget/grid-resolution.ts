@@ -34,14 +34,21 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
   // a scalar is the base temperature T0 and follows the EOS here.
   const baro = eos.kind === 'barotropic' && field === null;
   const jUniform = field === null && !baro ? j1 / Math.sqrt(scalarT) : 0;
+  let lastRho = Number.NaN, lastT = Number.NaN, lastJ = 0;
   for (let i = 0; i < n; i++) {
     const rho = density[i]!;
     let j: number;
     if (!(rho > 0)) j = 0;
     else if (jUniform > 0) j = jUniform * Math.sqrt(rho);
     else {
-      const t = (field === null ? scalarT : field[i]!) * (baro ? eosTemperatureFactor(eos, rho) : 1);
-      j = t > 0 ? j1 * Math.sqrt(rho / t) : Infinity;
+      const t0 = field === null ? scalarT : field[i]!;
+      // runs of equal (rho, T), as in a uniform ambient medium, reuse the value (the same result)
+      if (rho === lastRho && t0 === lastT) j = lastJ;
+      else {
+        const t = t0 * (baro ? eosTemperatureFactor(eos, rho) : 1);
+        j = t > 0 ? j1 * Math.sqrt(rho / t) : Infinity;
+        lastRho = rho; lastT = t0; lastJ = j;
+      }
     }
     jmap[i] = j;
     if (rho > 0) mass += rho;

@@ -138,11 +138,13 @@ export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNu
   const width = (l1 - l0) / JEANS_BINS;
   const counts = new Float64Array(JEANS_BINS);
   const inv = 1 / (width * Math.LN10);
+  // runs of equal values (a uniform ambient medium) reuse the bin (the same result)
+  let lastV = Number.NaN, lastB = 0;
   for (let i = 0; i < j.length; i++) {
     const v = j[i]!;
     if (!(v > 0) || v === Infinity) continue;
-    const b = Math.min(JEANS_BINS - 1, Math.max(0, Math.floor((Math.log(v) - l0 * Math.LN10) * inv)));
-    counts[b]! += 1;
+    if (v !== lastV) { lastV = v; lastB = Math.min(JEANS_BINS - 1, Math.max(0, Math.floor((Math.log(v) - l0 * Math.LN10) * inv))); }
+    counts[lastB]! += 1;
   }
   return {
     log10_j_edges: Array.from({ length: JEANS_BINS + 1 }, (_, b) => l0 + b * width),
