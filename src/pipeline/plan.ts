@@ -76,14 +76,15 @@ export function effectiveConfig(config: Config, opts: Pick<PlanOptions, 'cells' 
  * Generates and surveys one cloud (used by plan, ensembles and the ladder). With `lane` (a one-worker
  * pool nothing else uses) the merge tree is built there from the moment the density is final, while the
  * generator makes the velocity. Once the cloud is done, `beside` (work on the cloud that does not need
- * the survey) runs beside the survey; both are awaited. Timings: generate (s), beside (s, when given),
+ * the survey) runs beside the survey; both are awaited, and `besides` is what beside returned.
+ * Timings: generate (s), grid_outputs (s, beside's time, when given),
  * survey (s, from the end of the generation; the tree's own build time, overlapping the others, is in
  * the survey's timings).
  */
-export async function generateAndSurvey(
+export async function generateAndSurvey<T = void>(
   config: Config, pool: WorkerPool | null, progress: ProgressSink, seed = config.seed, cells = config.grid.cells,
-  lane: WorkerPool | null = null, beside?: (cloud: Cloud) => Promise<void>,
-): Promise<{ cloud: Cloud; survey: SurveyResult; seconds: Record<string, number> }> {
+  lane: WorkerPool | null = null, beside?: (cloud: Cloud) => Promise<T>,
+): Promise<{ cloud: Cloud; survey: SurveyResult; seconds: Record<string, number>; besides: T | undefined }> {
   const t0 = performance.now();
   let pending: PendingTree | undefined;
   const cloud = await generateCloud(config, {
@@ -94,7 +95,7 @@ export async function generateAndSurvey(
   });
   const t1 = performance.now();
   const seconds: Record<string, number> = { generate: (t1 - t0) / 1000 };
-  const side = beside ? beside(cloud).then(() => { seconds.beside = (performance.now() - t1) / 1000; }) : Promise.resolve();
+  const side = beside ? beside(cloud).then((v) => { seconds.grid_outputs = (performance.now() - t1) / 1000; return v; }) : Promise.resolve(undefined);
   side.catch(() => {}); // awaited below; a failure is reported there
   const s = cloud.summary;
   const options = surveyOptionsFromConfig(config, { ambientDensity: s.ambientDensity, mach: s.mach, velocitySpectrumIndex: s.velocitySpectrumIndex });
@@ -106,13 +107,14 @@ export async function generateAndSurvey(
     pending,
   );
   seconds.survey = (performance.now() - t1) / 1000;
+  let besides: T | undefined;
   if (beside) {
     const st = progress.stage('grid outputs', 1);
-    await side;
+    besides = await side;
     st.update(1);
     st.stop();
   }
-  return { cloud, survey, seconds };
+  return { cloud, survey, seconds, besides };
 }
 
 /** The analytic budget, computed from the config exactly as `fragplan budget` does, so both agree. */
@@ -149,14 +151,10 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     const nj = config.budget.grid.cells_per_jeans_length;
     const ex = config.export;
     const files: string[] = [];
-    let gridRes: GridResolution | undefined;
-    let budget: BudgetResult | undefined;
-    let gridPlots: GridPlots | undefined;
-    let icWrite: Promise<void> | undefined;
     // Work on the finished cloud that does not need the survey, done beside it (see
     // generateAndSurvey): the grid's Jeans numbers and the budget, the grid plots; the
     // initial-condition files are started here and awaited after the survey.
-    const beside = async (cloud: Cloud): Promise<void> => {
+    const gridOutputs = async (cloud: Cloud) => {
       // Jeans numbers and histograms on the pool (into shared memory)
       const eos = eosFromConfig(config);
       const resP = pool && cloud.density.buffer instanceof SharedArrayBuffer
@@ -164,20 +162,20 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
         : Promise.resolve(gridResolution(cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj));
       const plotsP = buildGridPlots(cloud, resP, nj, undefined, pool);
       plotsP.catch(() => {}); // awaited below; a failure is reported there
-      budget = budgetForConfig(config);
+      const budget = budgetForConfig(config);
       // the grid files are written in the background while the survey runs (no bar: the survey's show)
       const t = performance.now();
       mkdirSync(runDir, { recursive: true });
-      icWrite = writeGridExports(cloud, path.join(runDir, 'ic'), {
+      const icWrite = writeGridExports(cloud, path.join(runDir, 'ic'), {
         formats: ex.formats, precision: ex.precision, units: ex.units, codeUnits: { length: ex.code_units.length, mass: ex.code_units.mass },
         thermalField: ex.thermal_field, particles: ex.particles ?? null, force: opts.force, mu: cloud.summary.mu,
       }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, silentProgress)
         .then(() => { timings.write_ic = (performance.now() - t) / 1000; });
       icWrite.catch(() => {}); // awaited after the survey; a failure is reported there
-      gridRes = await resP;
-      gridPlots = await plotsP;
+      return { gridRes: await resP, gridPlots: await plotsP, budget, icWrite };
     };
-    const { cloud, survey, seconds } = await generateAndSurvey(config, pool, progress, config.seed, cells, lane, beside);
+    const { cloud, survey, seconds, besides } = await generateAndSurvey(config, pool, progress, config.seed, cells, lane, gridOutputs);
+    const { gridRes: res, gridPlots, budget: bud, icWrite } = besides!;
     Object.assign(timings, seconds);
     for (const [k, v] of Object.entries(survey.timings)) timings[`survey_${k}`] = v;
     const sw = progress.stage('writing grids', 1);
@@ -185,8 +183,6 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     sw.update(1);
     sw.stop();
     files.push('ic/manifest.json');
-    if (!gridRes || !budget || !gridPlots) throw new Error('plan: the grid outputs were not made');
-    const res = gridRes, bud = budget;
 
     let ensemble: Record<string, unknown> | undefined;
     let t = performance.now();
