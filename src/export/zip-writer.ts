@@ -38,6 +38,31 @@ function dosDateTime(d: Date): { date: number; time: number } {
   };
 }
 
+/** The fields a local header and a central directory record share, in the same order. */
+interface EntryFields {
+  readonly method: number;
+  readonly time: number;
+  readonly date: number;
+  readonly crc: number;
+  /** Bytes stored (compressed). */
+  readonly stored: number;
+  /** Bytes of the file. */
+  readonly size: number;
+  readonly nameLength: number;
+}
+
+/** Writes flags (UTF-8 names), method, time, date, CRC, sizes and name length from byte `at` on. */
+function writeEntryFields(buf: Buffer, at: number, f: EntryFields): void {
+  buf.writeUInt16LE(0x0800, at);
+  buf.writeUInt16LE(f.method, at + 2);
+  buf.writeUInt16LE(f.time, at + 4);
+  buf.writeUInt16LE(f.date, at + 6);
+  buf.writeUInt32LE(f.crc, at + 8);
+  buf.writeUInt32LE(f.stored, at + 12);
+  buf.writeUInt32LE(f.size, at + 16);
+  buf.writeUInt16LE(f.nameLength, at + 20);
+}
+
 /** The archive bytes of the entries, in order; deflate level 0-9, all entries dated `date` (UTC). */
 export function zipArchive(entries: readonly ZipEntry[], date: Date, level = 6): Uint8Array {
   const { date: dd, time: dt } = dosDateTime(date);
@@ -52,30 +77,16 @@ export function zipArchive(entries: readonly ZipEntry[], date: Date, level = 6):
     const body = method === 8 ? deflated : raw;
     const crc = crc32(raw);
     if (raw.length >= 0xffffffff || offset >= 0xffffffff) throw new RangeError(`zip entry ${e.name}: archives over 4 GiB need ZIP64, which this writer does not write`);
+    const fields: EntryFields = { method, time: dt, date: dd, crc, stored: body.length, size: raw.length, nameLength: name.length };
     const local = Buffer.alloc(30);
     local.writeUInt32LE(0x04034b50, 0);
     local.writeUInt16LE(20, 4); // version needed: 2.0 (deflate)
-    local.writeUInt16LE(0x0800, 6); // flags: names are UTF-8
-    local.writeUInt16LE(method, 8);
-    local.writeUInt16LE(dt, 10);
-    local.writeUInt16LE(dd, 12);
-    local.writeUInt32LE(crc, 14);
-    local.writeUInt32LE(body.length, 18);
-    local.writeUInt32LE(raw.length, 22);
-    local.writeUInt16LE(name.length, 26);
-    local.writeUInt16LE(0, 28);
+    writeEntryFields(local, 6, fields); // extra length at 28: 0
     const cd = Buffer.alloc(46);
     cd.writeUInt32LE(0x02014b50, 0);
     cd.writeUInt16LE(20, 4); // made by: MS-DOS host, version 2.0
     cd.writeUInt16LE(20, 6);
-    cd.writeUInt16LE(0x0800, 8);
-    cd.writeUInt16LE(method, 10);
-    cd.writeUInt16LE(dt, 12);
-    cd.writeUInt16LE(dd, 14);
-    cd.writeUInt32LE(crc, 16);
-    cd.writeUInt32LE(body.length, 20);
-    cd.writeUInt32LE(raw.length, 24);
-    cd.writeUInt16LE(name.length, 28);
+    writeEntryFields(cd, 8, fields);
     // extra length, comment length, disk number, internal and external attributes: 0
     cd.writeUInt32LE(offset, 42);
     parts.push(local, name, body);
