@@ -14,6 +14,7 @@
 import FFT from 'fft.js';
 import type { Grid3 } from './grid3.js';
 import { isPowerOfTwo } from './grid3.js';
+import { transformBatch } from './fft-batch.js';
 
 const plans = new Map<number, FFT>();
 function plan(n: number): FFT {
@@ -74,40 +75,13 @@ export function forwardZ(field: ArrayLike<number>, spec: Float64Array, g: Grid3,
   }
 }
 
-/** Lines gathered at once by complexAxis: consecutive kz at one (j) or (i), so each cache line is used fully. */
+/** Lines transformed at once by complexAxis: consecutive kz at one (j) or (i), stored side by side in the spectrum. */
 const BLOCK = 16;
-/** Padding (Float64 values) between block lines. */
-const PAD = 8;
-
-/**
- * Transforms of lines that hold only zeros (of either sign), keyed by the input's exact bits.
- * The output is a pure function of those bits, so reusing it gives the bytes fft.js would give.
- * Spectra of band-limited fields (k_max below Nyquist) are mostly such lines.
- */
-interface ZeroCache { bits: Int32Array[]; outs: Float64Array[] }
-const zeroCaches = new Map<string, ZeroCache>();
-const ZERO_CACHE_MAX = 16;
 
 /** True when every value of line is +0 (not -0). */
 function allPositiveZero(line: Float64Array): boolean {
   for (let q = 0; q < line.length; q++) if (line[q] !== 0 || 1 / line[q]! < 0) return false;
   return true;
-}
-
-/** True when every value of line is +0 or -0. */
-function allZero(line: Float64Array): boolean {
-  for (let q = 0; q < line.length; q++) if (line[q] !== 0) return false;
-  return true;
-}
-
-/** Index of the cached line whose bits equal bits[off, off + len), or -1. */
-function findCached(cache: ZeroCache, bits: Int32Array, off: number, len: number): number {
-  outer: for (let e = 0; e < cache.bits.length; e++) {
-    const s = cache.bits[e]!;
-    for (let q = 0; q < len; q++) if (s[q] !== bits[off + q]) continue outer;
-    return e;
-  }
-  return -1;
 }
 
 /** Transform (plan p, direction inverse) of the line whose every complex value is (re, im). */
@@ -127,7 +101,8 @@ function constantLineTransform(p: FFT, n: number, inverse: boolean, re: number, 
  * |ky| > band or kz > band, and the axis-1 lines with kz > band that such an axis-0 pass (same
  * direction, same band) produced, are not read: their known input is transformed once and
  * written (not even written when it is +0 throughout, as it is for fft.js: the spectrum already
- * holds +0 there). Same bytes as without the hint; pass it only when the promise holds.
+ * holds +0 there). Same bytes as without the hint; pass it only when the promise holds. The lines
+ * go through transformBatch (fft.js's operations, fft.js's bits) BLOCK at a time.
  */
 export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, start = 0, end = axisLineCount(g, axis), band = Infinity): void {
   const { nx, ny } = g;
@@ -135,18 +110,10 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
   const n = axis === 0 ? nx : ny;
   const stride = axis === 0 ? ny * nh * 2 : nh * 2;
   const p = plan(n);
-  const n2 = 2 * n;
-  // block line b holds line b contiguously (interleaved complex, length 2n); lines are LS apart,
-  // padded by one cache line so that a block's lines do not all map to the same L1 cache set
-  const LS = n2 + PAD;
-  const inBlock = new Float64Array(BLOCK * LS);
-  const outBlock = new Float64Array(BLOCK * LS);
-  const ins = Array.from({ length: BLOCK }, (_, b) => inBlock.subarray(b * LS, b * LS + n2));
-  const outs = Array.from({ length: BLOCK }, (_, b) => outBlock.subarray(b * LS, b * LS + n2));
-  const inBits = new Int32Array(inBlock.buffer);
-  const cacheKey = `${n}:${inverse ? 1 : 0}`;
-  let cache = zeroCaches.get(cacheKey);
-  if (!cache) zeroCaches.set(cacheKey, (cache = { bits: [], outs: [] }));
+  // a block's lines sit side by side in the spectrum (consecutive kz): element a of line b at
+  // base + a*stride + 2b, which is transformBatch's interleaved layout row by row
+  const inB = new Float64Array(BLOCK * 2 * n);
+  const outB = new Float64Array(BLOCK * 2 * n);
   // known lines (see `band`): axis 0 input all +0; axis 1 input constant, the x-transform of +0 at index i
   const hinted = band < Infinity;
   const zeroX = hinted ? constantLineTransform(plan(nx), nx, inverse, 0, 0) : null;
@@ -175,36 +142,33 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
         }
       }
     }
-    if (firstKnown > 0) {
-      const wg = 2 * firstKnown;
-      for (let a = 0, o = base; a < n; a++, o += stride) {
-        for (let q = 0, t = 2 * a; q < wg; q += 2, t += LS) {
-          inBlock[t] = spec[o + q]!;
-          inBlock[t + 1] = spec[o + q + 1]!;
+    const w = 2 * firstKnown;
+    if (w > 0) {
+      // +0 lines transform to +0 lines (fft.js does so): a block that is +0 throughout stays as it is
+      let zero = true;
+      for (let a = 0, o = base, t = 0; a < n; a++, o += stride) {
+        for (let q = 0; q < w; q++, t++) {
+          const v = spec[o + q]!;
+          inB[t] = v;
+          if (v !== 0 || 1 / v < 0) zero = false;
+        }
+      }
+      if (!zero) {
+        transformBatch(outB, inB, n, firstKnown, inverse);
+        if (inverse) {
+          for (let a = 0, o = base, t = 0; a < n; a++, o += stride) for (let q = 0; q < w; q++, t++) spec[o + q] = outB[t]! / n;
+        } else {
+          for (let a = 0, o = base, t = 0; a < n; a++, o += stride) for (let q = 0; q < w; q++, t++) spec[o + q] = outB[t]!;
         }
       }
     }
     // a known output of +0 everywhere equals what the spectrum already holds there (+0 in, +0 out):
-    // those lines are neither copied nor written back
-    const written = firstKnown < count && known !== null && allPositiveZero(known) ? firstKnown : count;
-    for (let b = firstKnown; b < written; b++) outs[b]!.set(known!);
-    for (let b = 0; b < firstKnown; b++) {
-      const src = ins[b]!, dst = outs[b]!;
-      const e = findCached(cache, inBits, 2 * b * LS, 2 * n2);
-      if (e >= 0) { dst.set(cache.outs[e]!); continue; }
-      if (inverse) p.inverseTransform(dst, src);
-      else p.transform(dst, src);
-      if (cache.bits.length < ZERO_CACHE_MAX && allZero(src)) {
-        cache.bits.push(inBits.slice(2 * b * LS, 2 * b * LS + 2 * n2));
-        cache.outs.push(dst.slice());
-      }
-    }
-    const ww = 2 * written;
-    if (ww > 0) {
+    // those lines are not written back
+    if (firstKnown < count && known !== null && !allPositiveZero(known)) {
       for (let a = 0, o = base; a < n; a++, o += stride) {
-        for (let q = 0, t = 2 * a; q < ww; q += 2, t += LS) {
-          spec[o + q] = outBlock[t]!;
-          spec[o + q + 1] = outBlock[t + 1]!;
+        for (let b = firstKnown; b < count; b++) {
+          spec[o + 2 * b] = known[2 * a]!;
+          spec[o + 2 * b + 1] = known[2 * a + 1]!;
         }
       }
     }
@@ -212,29 +176,35 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
   }
 }
 
+/** Line pairs that inverseZ transforms together (transformBatch). */
+const Z_BATCH = 8;
+
 /**
  * Inverse real transform of z lines [start, end) of the half spectrum into `field`.
- * Two real lines are done with one complex transform (Z = A + iB gives a + ib).
+ * Two real lines are done with one complex transform (Z = A + iB gives a + ib), Z_BATCH pairs at a
+ * time through transformBatch (fft.js's operations, so fft.js's bits), divided by nz where stored.
  */
 export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array, g: Grid3, start = 0, end = zLineCount(g)): void {
   const { nz } = g;
   const nh = halfLength(nz);
-  const p = plan(nz);
-  const z = new Float64Array(2 * nz);
-  const out = new Float64Array(2 * nz);
-  for (let line = start; line < end; line += 2) {
-    const a = line * nh * 2;
-    const hasB = line + 1 < end;
-    const b = (line + 1) * nh * 2;
-    // Hermitian extension: X[k] = conj(X[nz - k]) for k > nz/2 (same operations as k < nh with sign -1)
-    if (hasB) {
+  const zb = new Float64Array(2 * nz * Z_BATCH);
+  const ob = new Float64Array(2 * nz * Z_BATCH);
+  const pairs = Math.floor((end - start) / 2);
+  for (let first = 0; first < pairs; first += Z_BATCH) {
+    const P = Math.min(Z_BATCH, pairs - first);
+    const P2 = 2 * P;
+    for (let q = 0; q < P; q++) {
+      const line = start + 2 * (first + q);
+      const a = line * nh * 2;
+      const b = (line + 1) * nh * 2;
+      // Hermitian extension: X[k] = conj(X[nz - k]) for k > nz/2 (same operations as k < nh with sign -1)
       for (let k = 0; k < nh; k++) {
         const ar = spec[a + 2 * k]!;
         const ai = 1 * spec[a + 2 * k + 1]!;
         const br = spec[b + 2 * k]!;
         const bi = 1 * spec[b + 2 * k + 1]!;
-        z[2 * k] = ar - bi;
-        z[2 * k + 1] = ai + br;
+        zb[k * P2 + 2 * q] = ar - bi;
+        zb[k * P2 + 2 * q + 1] = ai + br;
       }
       for (let k = nh; k < nz; k++) {
         const src = nz - k;
@@ -242,26 +212,38 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
         const ai = -1 * spec[a + 2 * src + 1]!;
         const br = spec[b + 2 * src]!;
         const bi = -1 * spec[b + 2 * src + 1]!;
-        z[2 * k] = ar - bi;
-        z[2 * k + 1] = ai + br;
+        zb[k * P2 + 2 * q] = ar - bi;
+        zb[k * P2 + 2 * q + 1] = ai + br;
       }
-    } else {
-      for (let k = 0; k < nz; k++) {
-        const src = k < nh ? k : nz - k;
-        const sgn = k < nh ? 1 : -1;
-        const ar = spec[a + 2 * src]!;
-        const ai = sgn * spec[a + 2 * src + 1]!;
-        z[2 * k] = ar - 0;
-        z[2 * k + 1] = ai + 0;
+    }
+    transformBatch(ob, zb, nz, P, true);
+    for (let q = 0; q < P; q++) {
+      const fa = (start + 2 * (first + q)) * nz;
+      const fb = fa + nz;
+      for (let k = 0, o = 2 * q; k < nz; k++, o += P2) {
+        field[fa + k] = ob[o]! / nz;
+        field[fb + k] = ob[o + 1]! / nz;
       }
+    }
+  }
+  if ((end - start) % 2 === 1) {
+    // the last line has no partner: Z = A alone (the same operations as a pair with B = 0)
+    const line = end - 1;
+    const a = line * nh * 2;
+    const p = plan(nz);
+    const z = new Float64Array(2 * nz);
+    const out = new Float64Array(2 * nz);
+    for (let k = 0; k < nz; k++) {
+      const src = k < nh ? k : nz - k;
+      const sgn = k < nh ? 1 : -1;
+      const ar = spec[a + 2 * src]!;
+      const ai = sgn * spec[a + 2 * src + 1]!;
+      z[2 * k] = ar - 0;
+      z[2 * k + 1] = ai + 0;
     }
     p.inverseTransform(out, z);
     const fa = line * nz;
     for (let k = 0; k < nz; k++) field[fa + k] = out[2 * k]!;
-    if (hasB) {
-      const fb = (line + 1) * nz;
-      for (let k = 0; k < nz; k++) field[fb + k] = out[2 * k + 1]!;
-    }
   }
 }
 
