@@ -62,9 +62,18 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
   const tree = built.tree;
   timings.tree = built.seconds;
 
+  // node moments: on the tree's worker, beside the self-gravity, when the inputs are on shared
+  // memory (the same function, the same sums); else here
   let t = now();
-  const sums = nodeMoments(input, tree.labels, tree.parent);
-  timings.moments = now() - t;
+  const onShared = (a: { buffer: ArrayBufferLike } | null | undefined): boolean => !a || a.buffer instanceof SharedArrayBuffer;
+  const inputsShared = onShared(input.density) && onShared(tree.labels) && (input.velocity ?? []).every(onShared) && (input.magnetic ?? []).every(onShared)
+    && (typeof input.temperature === 'number' || onShared(input.temperature));
+  const momentsOnLane = pendingTree.lane && inputsShared
+    ? pendingTree.lane.run<Float64Array>('surveyNodeMoments', [input, tree.labels, tree.parent]).then((v) => { timings.moments = now() - t; return v; })
+    : null;
+  momentsOnLane?.catch(() => {}); // awaited below
+  const sumsHere = momentsOnLane ? null : nodeMoments(input, tree.labels, tree.parent);
+  if (!momentsOnLane) timings.moments = now() - t;
 
   t = now();
   const tolerance = options.gravityTolerance ?? 0.01;
@@ -78,6 +87,7 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
     sg.stop();
   }
   timings.gravity = now() - t;
+  const sums = momentsOnLane ? await momentsOnLane : sumsHere!;
 
   t = now();
   const nodes = nodeVerdicts(tree, sums, gravity, vol, input.mu, options);

@@ -30,6 +30,8 @@ export interface PendingTree {
   readonly counter: Int32Array | null;
   /** Inline build: the arguments. */
   readonly build: { grid: Grid3; connectivity: 6 | 26; limits: TreeLimits; cellVolume: number };
+  /** The worker the tree is built on (free once the tree is done; the survey then sums node moments there), or null. */
+  readonly lane: WorkerPool | null;
 }
 
 /** A finished tree: the tree, its build time (s), and (from a worker) the nodes' cell lists. */
@@ -87,7 +89,7 @@ export function startMergeTree(density: Float32Array, grid: Grid3, options: Surv
     grid, connectivity: options.connectivity, cellVolume: cellVolume(grid),
     limits: { minCells: options.minCells, minContrast: options.minContrast, minMass: options.minMass },
   };
-  if (!lane || !(density.buffer instanceof SharedArrayBuffer)) return { density, floor, floorRule: rule, running: null, counter: null, build };
+  if (!lane || !(density.buffer instanceof SharedArrayBuffer)) return { density, floor, floorRule: rule, running: null, counter: null, build, lane: null };
   const labels = new Int32Array(new SharedArrayBuffer(cellCount(grid) * 4));
   const counter = new Int32Array(new SharedArrayBuffer(8));
   const shape = { nx: grid.nx, ny: grid.ny, nz: grid.nz };
@@ -96,7 +98,7 @@ export function startMergeTree(density: Float32Array, grid: Grid3, options: Surv
     .then((r) => ({ tree: r.tree, listed: r.listed, seconds: (performance.now() - t0) / 1000 }));
   // an unawaited failure is reported when awaited; do not let it surface as an unhandled rejection first
   running.catch(() => {});
-  return { density, floor, floorRule: rule, running, counter, build };
+  return { density, floor, floorRule: rule, running, counter, build, lane };
 }
 
 /** Waits for (or builds) the pending tree, showing its progress as the stage 'survey: merge tree'; seconds is the build's wall time. */
