@@ -124,8 +124,6 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
 
   const nSpec = spectraNeeded(config);
   const specs = Array.from({ length: nSpec }, () => (shared ? sharedSpectrum(g) : new Float64Array(halfSpectrumLength(g))));
-  // the scratch spectrum is +0 above this kz index (fresh: everywhere), so fills zero only below it
-  let dirtyKz = -1;
   const temperature = field();
   const velocity: [Float32Array, Float32Array, Float32Array] = [field(), field(), field()];
 
@@ -147,7 +145,7 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
     const kMax = Math.min(s.k_max ?? nyquist, nyquist);
     st = progress.stage('cloud: lognormal density', 3);
     let done = 0;
-    dirtyKz = await applyLognormalStructure(g, pool, { key, index: s.spectrum_index, kMin: s.k_min, kMax, coupling: s.coupling }, sigmaS, density, inside, specs[0]!, temperature, () => st.update(++done), dirtyKz);
+    await applyLognormalStructure(g, pool, { key, index: s.spectrum_index, kMin: s.k_min, kMax, coupling: s.coupling }, sigmaS, density, inside, specs[0]!, temperature, () => st.update(++done));
     st.stop();
   } else if (s.kind === 'clumps' || s.kind === 'fractal') {
     st = progress.stage(`cloud: ${s.kind}`, 1);
@@ -180,7 +178,7 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
     st = progress.stage('cloud: turbulent velocity', 5);
     let done = 0;
     const p = { key, index: c.turbulence.spectrum_index, kMin: c.turbulence.k_min, kMax: kMaxV!, zeta };
-    dirtyKz = await rawTurbulence(g, pool, p, specs[0]!, velocity, () => st.update(++done), dirtyKz);
+    await rawTurbulence(g, pool, p, specs[0]!, velocity, () => st.update(++done));
     let rms = removeNetMomentum(g, density, inside, velocity);
     if (c.turbulence.zero_angular_momentum) {
       removeNetAngularMomentum(g, density, inside, velocity, centre);

@@ -55,21 +55,16 @@ export interface LogDensityModeParams {
  * Zeroes rows [start, end) of every spectrum, then calls fn(idx, kx, ky, kz, k, flip) for every
  * non-zero in-band mode of those rows. Only the box |kx|, |ky|, kz <= kMax is visited: outside
  * it |k| >= max(|kx|, |ky|, kz) > kMax (sqrt is exact on a perfect square), so those modes are
- * zero anyway. Same values, same bytes as visiting every mode. `dirtyKz`: the spectra hold +0 at
- * every kz above it (a fresh array: -1; after a band-limited inverse: see bandInverseDirtyKz), so
- * only kz <= dirtyKz is zeroed.
+ * zero anyway. Same values, same bytes as visiting every mode.
  */
 function forBand(
   g: Grid3, start: number, end: number, kMin: number, kMax: number, specs: readonly Float64Array[],
   fn: (idx: number, kx: number, ky: number, kz: number, k: number, flip: boolean) => void,
-  dirtyKz: number,
 ): void {
   const { nx, ny, nz } = g;
   const nh = halfLength(nz);
   const rowLen = ny * nh * 2;
-  const top = Math.min(nh - 1, dirtyKz);
-  if (top === nh - 1) for (const s of specs) s.fill(0, start * rowLen, end * rowLen);
-  else if (top >= 0) for (const s of specs) for (let r = start * ny; r < end * ny; r++) s.fill(0, r * nh * 2, (r * nh + top + 1) * 2);
+  for (const s of specs) s.fill(0, start * rowLen, end * rowLen);
   const cMax = Math.min(nh - 1, Math.floor(kMax));
   for (let i = start; i < end; i++) {
     const kx = signedWavenumber(i, nx);
@@ -92,10 +87,9 @@ function forBand(
 /**
  * Fills the half spectrum of velocity component `axis` (0 x, 1 y, 2 z; rows [start, end)) per the file
  * comment. Each component is computed from all three raw vectors by the same expression whether
- * the components are filled together or one at a time, so one scratch spectrum serves all three;
- * dirtyKz as in forBand.
+ * the components are filled together or one at a time, so one scratch spectrum serves all three.
  */
-export function fillVelocityComponent(start: number, end: number, spec: Float64Array, axis: 0 | 1 | 2, g: Grid3, p: VelocityModeParams, dirtyKz = halfLength(g.nz) - 1): void {
+export function fillVelocityComponent(start: number, end: number, spec: Float64Array, axis: 0 | 1 | 2, g: Grid3, p: VelocityModeParams): void {
   const w0 = new Float64Array(2), w1 = new Float64Array(2), w2 = new Float64Array(2);
   const ws = [w0, w1, w2] as const;
   const w = ws[axis];
@@ -112,11 +106,11 @@ export function fillVelocityComponent(start: number, end: number, spec: Float64A
     const sg = flip ? -1 : 1;
     spec[idx] = amp * (p.zeta * w[0]! + a * h * dr);
     spec[idx + 1] = sg * amp * (p.zeta * w[1]! + a * h * di);
-  }, dirtyKz);
+  });
 }
 
-/** Fills the ln-density half spectrum (rows [start, end)) per the file comment; dirtyKz as in forBand. */
-export function fillLogDensityModes(start: number, end: number, spec: Float64Array, g: Grid3, p: LogDensityModeParams, dirtyKz = halfLength(g.nz) - 1): void {
+/** Fills the ln-density half spectrum (rows [start, end)) per the file comment. */
+export function fillLogDensityModes(start: number, end: number, spec: Float64Array, g: Grid3, p: LogDensityModeParams): void {
   const z = new Float64Array(2), w0 = new Float64Array(2), w1 = new Float64Array(2), w2 = new Float64Array(2);
   const c = p.coupling;
   const ci = Math.sqrt(Math.max(0, 1 - c * c));
@@ -140,5 +134,5 @@ export function fillLogDensityModes(start: number, end: number, spec: Float64Arr
     const amp = k ** (-p.index / 2);
     spec[idx] = amp * re;
     spec[idx + 1] = (flip ? -1 : 1) * amp * im;
-  }, dirtyKz);
+  });
 }

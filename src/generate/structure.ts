@@ -15,21 +15,16 @@
 import type { Grid3 } from '../grid/grid3.js';
 import type { WorkerPool } from '../grid/pool.js';
 import { realInverse3Parallel } from '../grid/fft3-parallel.js';
-import { bandInverseDirtyKz, halfLength } from '../grid/fft3.js';
 import { fillLogDensityModes, type LogDensityModeParams } from './modes.js';
 import { applyLognormal } from './cell-kernels.js';
 
-/**
- * Makes the lognormal density: density (envelope, in place) times exp(s), s of width sigmaS over the
- * cloud. spec: a scratch half spectrum holding +0 above kz index dirtyKz (see forBand in modes.ts);
- * returns the same bound for it afterwards.
- */
+/** Makes the lognormal density: density (envelope, in place) times exp(s), s of width sigmaS over the cloud. */
 export async function applyLognormalStructure(
   g: Grid3, pool: WorkerPool | null, p: LogDensityModeParams, sigmaS: number,
-  density: Float32Array, inside: Uint8Array, spec: Float64Array, scratch: Float32Array, onStep: () => void, dirtyKz = halfLength(g.nz) - 1,
-): Promise<number> {
-  if (pool) await pool.runRanges('genLogDensityModes', g.nx, [spec, g, p, dirtyKz]);
-  else fillLogDensityModes(0, g.nx, spec, g, p, dirtyKz);
+  density: Float32Array, inside: Uint8Array, spec: Float64Array, scratch: Float32Array, onStep: () => void,
+): Promise<void> {
+  if (pool) await pool.runRanges('genLogDensityModes', g.nx, [spec, g, p]);
+  else fillLogDensityModes(0, g.nx, spec, g, p);
   onStep();
   await realInverse3Parallel(pool, spec, g, scratch, p.kMax);
   onStep();
@@ -45,7 +40,6 @@ export async function applyLognormalStructure(
   if (pool) await pool.runRanges('genLognormal', density.length, [density, scratch, inside, mean, scale, shift]);
   else applyLognormal(0, density.length, density, scratch, inside, mean, scale, shift);
   onStep();
-  return bandInverseDirtyKz(g, p.kMax);
 }
 
 /** Multiplies cloud cells by factor (e.g. the envelope's share 1 - mass_fraction). */

@@ -14,27 +14,19 @@ import type { Grid3 } from '../grid/grid3.js';
 import { cellVolume } from '../grid/grid3.js';
 import type { WorkerPool } from '../grid/pool.js';
 import { realInverse3Parallel } from '../grid/fft3-parallel.js';
-import { bandInverseDirtyKz, halfLength } from '../grid/fft3.js';
 import { fillVelocityComponent, type VelocityModeParams } from './modes.js';
 import { angularMoments, axisCentres, solve3 } from './moments.js';
 
 type Vec3Field = readonly [Float32Array, Float32Array, Float32Array];
 
-/**
- * Fills v with the raw turbulent field (unnormalised) on the cloud, one component at a time through
- * `spec`, a scratch half spectrum holding +0 above kz index dirtyKz (see forBand in modes.ts);
- * returns the same bound for it afterwards.
- */
-export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: VelocityModeParams, spec: Float64Array, v: Vec3Field, onStep: () => void, dirtyKz = halfLength(g.nz) - 1): Promise<number> {
-  let dirty = dirtyKz;
+/** Fills v with the raw turbulent field (unnormalised) on the cloud, one component at a time through `spec`, a scratch half spectrum (overwritten). */
+export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: VelocityModeParams, spec: Float64Array, v: Vec3Field, onStep: () => void): Promise<void> {
   for (const a of [0, 1, 2] as const) {
-    if (pool) await pool.runRanges('genVelocityComponent', g.nx, [spec, a, g, p, dirty]);
-    else fillVelocityComponent(0, g.nx, spec, a, g, p, dirty);
+    if (pool) await pool.runRanges('genVelocityComponent', g.nx, [spec, a, g, p]);
+    else fillVelocityComponent(0, g.nx, spec, a, g, p);
     await realInverse3Parallel(pool, spec, g, v[a], p.kMax);
-    dirty = bandInverseDirtyKz(g, p.kMax);
     onStep();
   }
-  return dirty;
 }
 
 /**

@@ -176,18 +176,6 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
   }
 }
 
-/**
- * Largest kz index that realInverse3 (or its parallel form) with this band hint can leave non-zero
- * in the spectrum it transforms in place: floor(band) when the skipped lines stay +0 (fft.js maps +0
- * lines to +0, checked here for the grid's sizes), else nz/2 (anything may be written).
- */
-export function bandInverseDirtyKz(g: Grid3, band: number): number {
-  const top = halfLength(g.nz) - 1;
-  if (!(band < top)) return top;
-  const zero = (n: number): boolean => allPositiveZero(constantLineTransform(plan(n), n, true, 0, 0));
-  return zero(g.nx) && zero(g.ny) ? Math.floor(band) : top;
-}
-
 /** Line pairs that inverseZ transforms together (transformBatch). */
 const Z_BATCH = 8;
 
