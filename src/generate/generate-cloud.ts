@@ -27,7 +27,7 @@ import type { Eos } from '../physics/eos.js';
 import { resolveEnvelope } from './envelope.js';
 import { cloudDimensions } from './dimensions.js';
 import { fillTemperature, gridEnvelope } from './cell-kernels.js';
-import { applyLognormalStructure, scaleCloud } from './structure.js';
+import { applyLognormalStructure } from './structure.js';
 import { drawClumps, drawFractal } from './clumps.js';
 import { depositBlobs } from './deposit.js';
 import { applyAzimuthalMode, axisBasis } from './rotation.js';
@@ -152,7 +152,7 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
     const blobs = s.kind === 'clumps' ? drawClumps(env.params, env.mass, s, seed) : drawFractal(env.params, env.mass, s, seed);
     if (blobs.length === 0) notes.push('fractal structure: no leaf fell inside the cloud; the cloud is smooth');
     else {
-      scaleCloud(density, inside, 1 - s.mass_fraction);
+      scaleCloudCells(0, N, density, inside, 1 - s.mass_fraction);
       const lost = depositBlobs(g, density, inside, blobs);
       if (lost > 0) notes.push(`${((100 * lost) / env.mass).toFixed(2)}% of the cloud mass was in ${s.kind} that touched no cloud cell; the renormalisation moved it into the rest of the cloud`);
     }

@@ -41,8 +41,3 @@ export async function applyLognormalStructure(
   else applyLognormal(0, density.length, density, scratch, inside, mean, scale, shift);
   onStep();
 }
-
-/** Multiplies cloud cells by factor (e.g. the envelope's share 1 - mass_fraction). */
-export function scaleCloud(density: Float32Array, inside: Uint8Array, factor: number): void {
-  for (let c = 0; c < density.length; c++) if (inside[c]) density[c] = density[c]! * factor;
-}

@@ -36,6 +36,25 @@ function workerScript(): string {
   return fileURLToPath(new URL('./worker.js', here));
 }
 
+/** True unless `a` is a typed array off shared memory: a worker can use it in place (numbers, objects and null pass). */
+export function onSharedMemory(a: unknown): boolean {
+  return !ArrayBuffer.isView(a) || a.buffer instanceof SharedArrayBuffer;
+}
+
+/**
+ * fn(...args) as the pool task `task` (registered for fn in src/worker.ts) when there is a pool and
+ * every typed array among `arrays` (default: the arguments) is on shared memory; else fn here, at
+ * once. The same function either way, so the same result.
+ */
+export function runWhole<A extends unknown[], T>(pool: WorkerPool | null, task: string, fn: (...args: A) => T, args: A, arrays: readonly unknown[] = args): Promise<T> {
+  if (pool && arrays.every(onSharedMemory)) return pool.run<T>(task, args);
+  try {
+    return Promise.resolve(fn(...args));
+  } catch (e) {
+    return Promise.reject(e);
+  }
+}
+
 /** Splits [0, total) into n near-equal contiguous ranges. */
 export function splitRange(total: number, n: number): Array<[number, number]> {
   const out: Array<[number, number]> = [];

@@ -12,7 +12,7 @@
  */
 import type { Grid3 } from './grid3.js';
 import { halfLength, realForward3, signedWavenumber } from './fft3.js';
-import type { WorkerPool } from './pool.js';
+import { onSharedMemory, type WorkerPool } from './pool.js';
 import { realForward3Parallel, sharedSpectrum } from './fft3-parallel.js';
 
 /** A shell-averaged spectrum: integer shells 1..kMax with mean |k|, mean mode power, shell sum and mode count. */
@@ -103,7 +103,7 @@ export async function vectorPowerSpectrumParallel(pool: WorkerPool | null, compo
   const spec = sharedSpectrum(g);
   for (let a = 0; a < components.length; a++) {
     const f = components[a]!;
-    const shared = f.buffer instanceof SharedArrayBuffer ? f : new Float32Array(new SharedArrayBuffer(f.length * 4));
+    const shared = onSharedMemory(f) ? f : new Float32Array(new SharedArrayBuffer(f.length * 4));
     if (shared !== f) shared.set(f);
     await realForward3Parallel(pool, shared, g, spec);
     accumulate(spec, g, sumK, energy, count, a === 0, blockFactor);

@@ -12,7 +12,7 @@ import type { LoadedConfig } from '../config/load.js';
 import type { Config } from '../config/schema.js';
 import type { Cloud } from '../generate/cloud.js';
 import { generateCloud, estimateGenerateBytes } from '../generate/generate-cloud.js';
-import { defaultWorkerCount, type WorkerPool } from '../grid/pool.js';
+import { defaultWorkerCount, runWhole, type WorkerPool } from '../grid/pool.js';
 import { closePlanPools, planPools, type PlanPools } from './plan-pools.js';
 import { isPowerOfTwo, volumeIntegral } from '../grid/grid3.js';
 import { InputError } from '../input-error.js';
@@ -157,9 +157,8 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     const gridOutputs = async (cloud: Cloud) => {
       // Jeans numbers and histograms on the pool (into shared memory)
       const eos = eosFromConfig(config);
-      const resP = pool && cloud.density.buffer instanceof SharedArrayBuffer
-        ? pool.run<GridResolution>('budgetGridResolution', [cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj, new Float32Array(new SharedArrayBuffer(cloud.density.length * 4))])
-        : Promise.resolve(gridResolution(cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj));
+      const jmap = new Float32Array(new SharedArrayBuffer(cloud.density.length * 4));
+      const resP = runWhole(pool, 'budgetGridResolution', gridResolution, [cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj, jmap]);
       const plotsP = buildGridPlots(cloud, resP, nj, undefined, pool);
       plotsP.catch(() => {}); // awaited below; a failure is reported there
       const budget = budgetForConfig(config);

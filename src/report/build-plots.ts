@@ -5,7 +5,7 @@
 import type { Cloud } from '../generate/cloud.js';
 import type { Grid3 } from '../grid/grid3.js';
 import { vectorPowerSpectrumParallel } from '../grid/spectrum.js';
-import type { WorkerPool } from '../grid/pool.js';
+import { onSharedMemory, runWhole, type WorkerPool } from '../grid/pool.js';
 import type { SurveyResult } from '../survey/types.js';
 import type { GridResolution } from '../budget/types.js';
 import { toUnit } from '../physics/units.js';
@@ -91,7 +91,7 @@ export function blockMeanPlanes(start: number, end: number, field: Float32Array,
 export async function blockMean(field: Float32Array, n: number, factor: number, pool: WorkerPool | null = null): Promise<Float32Array> {
   const m = n / factor;
   const out = new Float32Array(new SharedArrayBuffer(m * m * m * 4));
-  if (pool && pool.size >= 2 && field.buffer instanceof SharedArrayBuffer) await pool.runRanges('reportBlockMean', m, [field, n, factor, out]);
+  if (pool && pool.size >= 2 && onSharedMemory(field)) await pool.runRanges('reportBlockMean', m, [field, n, factor, out]);
   else blockMeanPlanes(0, m, field, n, factor, out);
   return out;
 }
@@ -154,6 +154,11 @@ export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNu
   };
 }
 
+/** jeansHistogram of a bare Jeans-number map (the worker task's form). */
+export function jeansNumberHistogram(jeansNumber: Float32Array, cellsPerJeansLength: number): JeansHistogramPlot | null {
+  return jeansHistogram({ jeansNumber }, cellsPerJeansLength);
+}
+
 /** Candidate masses, fit and model curves in Msun. */
 export function massSpectrumPlot(survey: SurveyResult): MassSpectrumPlot {
   const sp = survey.spectrum;
@@ -184,16 +189,10 @@ export async function buildGridPlots(cloud: Cloud | null, gridResolution: GridRe
   const density = cloud ? cloud.density : cube!.density;
   const mask = cloud ? cloud.inside : null;
   const sigma = cloud ? cloud.summary.sigmaS : null;
-  const onShared = (a: { buffer: ArrayBufferLike } | null): boolean => a === null || a.buffer instanceof SharedArrayBuffer;
-  const workers = pool !== null && pool.size >= 2;
-  const pdf = workers && onShared(density) && onShared(mask)
-    ? pool.run<DensityPdfPlot | null>('reportDensityPdf', [density, mask, sigma])
-    : Promise.resolve(densityPdf(density, mask, sigma));
+  const pdf = runWhole(pool, 'reportDensityPdf', densityPdf, [density, mask, sigma]);
   const spectrum = cloud ? velocitySpectrum(cloud, pool) : Promise.resolve(null);
   const res = await gridResolution;
-  const jeans = workers && onShared(res.jeansNumber)
-    ? pool.run<JeansHistogramPlot | null>('reportJeansHistogram', [res.jeansNumber, cellsPerJeansLength])
-    : Promise.resolve(jeansHistogram(res, cellsPerJeansLength));
+  const jeans = runWhole(pool, 'reportJeansHistogram', jeansNumberHistogram, [res.jeansNumber, cellsPerJeansLength]);
   const [density_pdf, velocity_spectrum, jeans_histogram] = await Promise.all([pdf, spectrum, jeans]);
   return { density_pdf, velocity_spectrum, jeans_histogram };
 }

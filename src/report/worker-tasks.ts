@@ -1,11 +1,11 @@
 /** Report and budget tasks for the worker pool (registered in src/worker.ts): whole-grid passes run as one task each, by the same functions as on the main thread. */
-import { blockMeanPlanes, densityPdf, jeansHistogram } from './build-plots.js';
+import { blockMeanPlanes, densityPdf, jeansNumberHistogram } from './build-plots.js';
 import { gridResolution } from '../budget/grid-resolution.js';
 
 /** Task name -> function: block means (coarse planes), density PDF, Jeans-number histogram, and the grid's Jeans numbers (into a shared output). */
 export const REPORT_TASKS = {
   reportBlockMean: blockMeanPlanes,
   reportDensityPdf: densityPdf,
-  reportJeansHistogram: (jeansNumber: Float32Array, cellsPerJeansLength: number) => jeansHistogram({ jeansNumber }, cellsPerJeansLength),
+  reportJeansHistogram: jeansNumberHistogram,
   budgetGridResolution: gridResolution,
 };

@@ -9,7 +9,7 @@
  * the same numbers.
  */
 import type { SurveyInput, SurveyOptions, SurveyResult } from './types.js';
-import type { WorkerPool } from '../grid/pool.js';
+import { runWhole, type WorkerPool } from '../grid/pool.js';
 import { cellCount, cellSize, cellVolume } from '../grid/grid3.js';
 import { silentProgress, type ProgressSink } from '../progress.js';
 import { startMergeTree, awaitMergeTree, type PendingTree } from './tree-task.js';
@@ -62,18 +62,14 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
   const tree = built.tree;
   timings.tree = built.seconds;
 
-  // node moments: on the tree's worker, beside the self-gravity, when the inputs are on shared
-  // memory (the same function, the same sums); else here
+  // node moments: on the tree's worker (free again), beside the self-gravity, when the inputs are on
+  // shared memory (the same function, the same sums); else here, now
   let t = now();
-  const onShared = (a: { buffer: ArrayBufferLike } | null | undefined): boolean => !a || a.buffer instanceof SharedArrayBuffer;
-  const inputsShared = onShared(input.density) && onShared(tree.labels) && (input.velocity ?? []).every(onShared) && (input.magnetic ?? []).every(onShared)
-    && (typeof input.temperature === 'number' || onShared(input.temperature));
-  const momentsOnLane = pendingTree.lane && inputsShared
-    ? pendingTree.lane.run<Float64Array>('surveyNodeMoments', [input, tree.labels, tree.parent]).then((v) => { timings.moments = now() - t; return v; })
-    : null;
-  momentsOnLane?.catch(() => {}); // awaited below
-  const sumsHere = momentsOnLane ? null : nodeMoments(input, tree.labels, tree.parent);
-  if (!momentsOnLane) timings.moments = now() - t;
+  const tm = t;
+  const momentArrays = [input.density, tree.labels, ...(input.velocity ?? []), ...(input.magnetic ?? []), input.temperature];
+  const momentsP = runWhole(pendingTree.lane, 'surveyNodeMoments', nodeMoments, [input, tree.labels, tree.parent], momentArrays)
+    .then((sums) => { timings.moments = now() - tm; return sums; });
+  momentsP.catch(() => {}); // awaited below
 
   t = now();
   const tolerance = options.gravityTolerance ?? 0.01;
@@ -87,7 +83,7 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
     sg.stop();
   }
   timings.gravity = now() - t;
-  const sums = momentsOnLane ? await momentsOnLane : sumsHere!;
+  const sums = await momentsP;
 
   t = now();
   const nodes = nodeVerdicts(tree, sums, gravity, vol, input.mu, options);

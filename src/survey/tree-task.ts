@@ -7,7 +7,7 @@
  * inline when awaited. After the tree the same worker lists each node's cells (listTreeCells),
  * which the self-gravity needs, while the main thread is still busy with other outputs.
  */
-import type { WorkerPool } from '../grid/pool.js';
+import { onSharedMemory, type WorkerPool } from '../grid/pool.js';
 import type { Grid3 } from '../grid/grid3.js';
 import { cellCount, cellVolume } from '../grid/grid3.js';
 import type { ProgressSink } from '../progress.js';
@@ -89,7 +89,7 @@ export function startMergeTree(density: Float32Array, grid: Grid3, options: Surv
     grid, connectivity: options.connectivity, cellVolume: cellVolume(grid),
     limits: { minCells: options.minCells, minContrast: options.minContrast, minMass: options.minMass },
   };
-  if (!lane || !(density.buffer instanceof SharedArrayBuffer)) return { density, floor, floorRule: rule, running: null, counter: null, build, lane: null };
+  if (!lane || !onSharedMemory(density)) return { density, floor, floorRule: rule, running: null, counter: null, build, lane: null };
   const labels = new Int32Array(new SharedArrayBuffer(cellCount(grid) * 4));
   const counter = new Int32Array(new SharedArrayBuffer(8));
   const shape = { nx: grid.nx, ny: grid.ny, nz: grid.nz };
