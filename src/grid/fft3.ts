@@ -117,8 +117,11 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
   // known lines (see `band`): axis 0 input all +0; axis 1 input constant, the x-transform of +0 at index i
   const hinted = band < Infinity;
   const zeroX = hinted ? constantLineTransform(plan(nx), nx, inverse, 0, 0) : null;
-  const knownOut = hinted && axis === 0 ? constantLineTransform(p, n, inverse, 0, 0) : null;
-  const knownByBits = new Map<string, Float64Array>();
+  // a known output that is +0 throughout equals what the spectrum already holds there (+0 in, +0
+  // out): it is kept as null, meaning nothing to write
+  const toWrite = (out: Float64Array): Float64Array | null => (allPositiveZero(out) ? null : out);
+  const knownOut = hinted && axis === 0 ? toWrite(constantLineTransform(p, n, inverse, 0, 0)) : null;
+  const knownByBits = new Map<string, Float64Array | null>();
   let line = start;
   while (line < end) {
     // line enumerates (j, kz) for axis 0 and (i, kz) for axis 1; a block shares j (or i)
@@ -137,8 +140,8 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
         else {
           const re = zeroX![2 * outer]!, im = zeroX![2 * outer + 1]!;
           const key = `${re}:${im}:${Object.is(re, -0)}:${Object.is(im, -0)}`;
+          if (!knownByBits.has(key)) knownByBits.set(key, toWrite(constantLineTransform(p, n, inverse, re, im)));
           known = knownByBits.get(key) ?? null;
-          if (!known) knownByBits.set(key, (known = constantLineTransform(p, n, inverse, re, im)));
         }
       }
     }
@@ -162,9 +165,8 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
         }
       }
     }
-    // a known output of +0 everywhere equals what the spectrum already holds there (+0 in, +0 out):
-    // those lines are not written back
-    if (firstKnown < count && known !== null && !allPositiveZero(known)) {
+    // known lines with something to write (see toWrite)
+    if (firstKnown < count && known !== null) {
       for (let a = 0, o = base; a < n; a++, o += stride) {
         for (let b = firstKnown; b < count; b++) {
           spec[o + 2 * b] = known[2 * a]!;
