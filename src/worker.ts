@@ -15,7 +15,7 @@ type Task = (...args: never[]) => unknown;
 const TASKS: Record<string, Task> = {
   fftForwardZ: (start: number, end: number, field: Float32Array, spec: Float64Array, g: Grid3) => forwardZ(field, spec, g, start, end),
   fftAxis: (start: number, end: number, spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean) => complexAxis(spec, g, axis, inverse, start, end),
-  fftInverseZ: (start: number, end: number, spec: Float64Array, field: Float32Array, g: Grid3) => inverseZ(spec, field, g, start, end),
+  fftInverseZ: (start: number, end: number, spec: Float64Array, field: Float32Array, g: Grid3, band: number) => inverseZ(spec, field, g, start, end, band),
   fftAxisBand: (start: number, end: number, spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, band: number) => complexAxis(spec, g, axis, inverse, start, end, band),
   ...GENERATE_TASKS,
   ...SURVEY_TASKS,

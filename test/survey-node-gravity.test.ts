@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { buildMergeTree } from '../src/survey/merge-tree.js';
-import { nodeCellLists } from '../src/survey/node-moments.js';
+import { nodeCellLists } from '../src/survey/cell-lists.js';
 import { nodeGravity, PARENT_CELLS } from '../src/survey/node-gravity.js';
 import { adaptiveSelfEnergy, coarseGrain, coarseSelfEnergy } from '../src/survey/self-gravity.js';
 
@@ -24,14 +24,36 @@ function nestedCube(n: number): Float32Array {
   return d;
 }
 
+describe('node cell lists', () => {
+  it('lists each subtree as one range, in index order, with each cell\'s grid indices and density', () => {
+    const n = 24;
+    const shape = { nx: n, ny: n, nz: n };
+    const density = nestedCube(n);
+    const tree = buildMergeTree(density, shape, 1e-21, 6, { minCells: 8, minContrast: 0.2, minMass: 0 }, 1);
+    const lists = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, density, shape);
+    expect(tree.count).toBeGreaterThan(1);
+    for (let t = 0; t < tree.count; t++) expect(lists.end[t]! - lists.start[t]!).toBe(tree.cells[t]);
+    for (let p = 0; p < lists.cells.length; p++) {
+      const c = lists.cells[p]!;
+      expect([lists.listed.i[p], lists.listed.j[p], lists.listed.k[p]]).toEqual([Math.floor(c / (n * n)), Math.floor(c / n) % n, c % n]);
+      expect(lists.listed.rho[p]).toBe(density[c]);
+    }
+    // a child's range sits inside its parent's; within a node's own cells the index order holds
+    for (let t = 0; t < tree.count; t++) {
+      const p = tree.parent[t]!;
+      if (p >= 0) expect(lists.start[t]! >= lists.start[p]! && lists.end[t]! <= lists.end[p]!).toBe(true);
+    }
+  });
+});
+
 describe('node gravity', () => {
   it('builds each parent from its children exactly as a direct deposit of all its cells would', async () => {
     const n = 48, dx = 3e16, gravityCells = 32, tol = 0.01;
     const shape = { nx: n, ny: n, nz: n };
     const density = nestedCube(n);
     const tree = buildMergeTree(density, shape, 1e-21, 6, { minCells: 8, minContrast: 0.2, minMass: 0 }, dx ** 3);
-    const lists = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots);
-    const got = await nodeGravity(tree, lists, density, shape, dx, gravityCells, tol, null);
+    const lists = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, density, shape);
+    const got = await nodeGravity(tree, lists, dx, gravityCells, tol, null);
     const cellsOf = (t: number) => lists.cells.subarray(lists.start[t], lists.end[t]);
     const extent = (t: number) => {
       const c = coarseGrain(density, shape, dx, cellsOf(t), 1, 1); // factor 1: g is the next power of two of the extent

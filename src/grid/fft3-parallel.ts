@@ -40,5 +40,5 @@ export async function realInverse3Parallel(pool: WorkerPool | null, spec: Float6
     if (b > a) ranges.push([a, b]);
     a = b;
   }
-  await Promise.all(ranges.map(([a, b]) => pool.run('fftInverseZ', [a, b, spec, field, g])));
+  await Promise.all(ranges.map(([a, b]) => pool.run('fftInverseZ', [a, b, spec, field, g, band])));
 }

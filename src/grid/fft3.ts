@@ -159,7 +159,9 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
       if (!zero) {
         transformBatch(outB, inB, n, firstKnown, inverse);
         if (inverse) {
-          for (let a = 0, o = base, t = 0; a < n; a++, o += stride) for (let q = 0; q < w; q++, t++) spec[o + q] = outB[t]! / n;
+          // 1/n is exact (n a power of two): the same bits as dividing by n
+          const scale = 1 / n;
+          for (let a = 0, o = base, t = 0; a < n; a++, o += stride) for (let q = 0; q < w; q++, t++) spec[o + q] = outB[t]! * scale;
         } else {
           for (let a = 0, o = base, t = 0; a < n; a++, o += stride) for (let q = 0; q < w; q++, t++) spec[o + q] = outB[t]!;
         }
@@ -184,13 +186,19 @@ const Z_BATCH = 8;
 /**
  * Inverse real transform of z lines [start, end) of the half spectrum into `field`.
  * Two real lines are done with one complex transform (Z = A + iB gives a + ib), Z_BATCH pairs at a
- * time through transformBatch (fft.js's operations, so fft.js's bits), divided by nz where stored.
+ * time through transformBatch (fft.js's operations, so fft.js's bits), scaled by 1/nz where stored
+ * (exact: nz is a power of two). `band` (cycles per box), when the axis passes ran with the same
+ * band hint: every line then holds one value at all kz > band (the transform of the +0 modes), so
+ * only kz <= band + 1 is read and that value is repeated (the same numbers as reading them all).
  */
-export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array, g: Grid3, start = 0, end = zLineCount(g)): void {
+export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array, g: Grid3, start = 0, end = zLineCount(g), band = Infinity): void {
   const { nz } = g;
   const nh = halfLength(nz);
+  // kz <= last are read; kz in (last, nh) equal kz = last + 1 (when last + 1 < nh)
+  const last = Math.min(nh - 1, Math.floor(band));
   const zb = new Float64Array(2 * nz * Z_BATCH);
   const ob = new Float64Array(2 * nz * Z_BATCH);
+  const scale = 1 / nz;
   const pairs = Math.floor((end - start) / 2);
   for (let first = 0; first < pairs; first += Z_BATCH) {
     const P = Math.min(Z_BATCH, pairs - first);
@@ -200,7 +208,7 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
       const a = line * nh * 2;
       const b = (line + 1) * nh * 2;
       // Hermitian extension: X[k] = conj(X[nz - k]) for k > nz/2 (same operations as k < nh with sign -1)
-      for (let k = 0; k < nh; k++) {
+      for (let k = 0; k <= last; k++) {
         const ar = spec[a + 2 * k]!;
         const ai = 1 * spec[a + 2 * k + 1]!;
         const br = spec[b + 2 * k]!;
@@ -208,7 +216,20 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
         zb[k * P2 + 2 * q] = ar - bi;
         zb[k * P2 + 2 * q + 1] = ai + br;
       }
-      for (let k = nh; k < nz; k++) {
+      // k in [nh, nz - last) reads src = nz - k > last: the repeated value too
+      let hermFrom = nh;
+      if (last + 1 < nh) {
+        const c = 2 * (last + 1);
+        const ar = spec[a + c]!, si = spec[a + c + 1]!, br = spec[b + c]!, ti = spec[b + c + 1]!;
+        const ai = 1 * si, bi = 1 * ti;
+        const pr = ar - bi, pi = ai + br;
+        for (let k = last + 1; k < nh; k++) { zb[k * P2 + 2 * q] = pr; zb[k * P2 + 2 * q + 1] = pi; }
+        const ni = -1 * si, nbi = -1 * ti;
+        const mr = ar - nbi, mi = ni + br;
+        hermFrom = nz - last;
+        for (let k = nh; k < hermFrom; k++) { zb[k * P2 + 2 * q] = mr; zb[k * P2 + 2 * q + 1] = mi; }
+      }
+      for (let k = hermFrom; k < nz; k++) {
         const src = nz - k;
         const ar = spec[a + 2 * src]!;
         const ai = -1 * spec[a + 2 * src + 1]!;
@@ -218,13 +239,13 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
         zb[k * P2 + 2 * q + 1] = ai + br;
       }
     }
-    transformBatch(ob, zb, nz, P, true);
+  transformBatch(ob, zb, nz, P, true);
     for (let q = 0; q < P; q++) {
       const fa = (start + 2 * (first + q)) * nz;
       const fb = fa + nz;
       for (let k = 0, o = 2 * q; k < nz; k++, o += P2) {
-        field[fa + k] = ob[o]! / nz;
-        field[fb + k] = ob[o + 1]! / nz;
+        field[fa + k] = ob[o]! * scale;
+        field[fb + k] = ob[o + 1]! * scale;
       }
     }
   }
@@ -266,5 +287,5 @@ export function realInverse3(spec: Float64Array, g: Grid3, field: Float32Array |
   assertFftShape(g);
   complexAxis(spec, g, 0, true, 0, axisLineCount(g, 0), band);
   complexAxis(spec, g, 1, true, 0, axisLineCount(g, 1), band);
-  inverseZ(spec, field, g);
+  inverseZ(spec, field, g, 0, zLineCount(g), band);
 }

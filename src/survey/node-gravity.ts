@@ -24,6 +24,7 @@
  * pair sums) run on the worker pool.
  */
 import type { MergeTree } from './merge-tree.js';
+import type { NodeCells } from './cell-lists.js';
 import type { WorkerPool } from '../grid/pool.js';
 import { adaptiveSelfEnergy, coarseGrainSet, coarseSelfEnergy, type CellSet, type CoarseMass, type GravityEstimate } from './self-gravity.js';
 
@@ -108,23 +109,6 @@ function toCoarse(box: Box, dx: number): CoarseMass {
   return { g, factor, side: factor * dx, mass, occupied };
 }
 
-/** Grid indices and densities (g/cm^3) of the cells `cells` (flat indices), in that order; on shared memory when `shared`. */
-export function listedCells(cells: Int32Array, density: Float32Array, shape: { ny: number; nz: number }, shared = false): CellSet {
-  const m = cells.length;
-  const ints = (): Int32Array => (shared ? new Int32Array(new SharedArrayBuffer(4 * m)) : new Int32Array(m));
-  const all: CellSet = { i: ints(), j: ints(), k: ints(), rho: shared ? new Float32Array(new SharedArrayBuffer(4 * m)) : new Float32Array(m) };
-  const nyz = shape.ny * shape.nz;
-  for (let p = 0; p < m; p++) {
-    const c = cells[p]!;
-    const i = Math.floor(c / nyz), r = c - i * nyz, j = Math.floor(r / shape.nz);
-    all.i[p] = i;
-    all.j[p] = j;
-    all.k[p] = r - j * shape.nz;
-    all.rho[p] = density[c]!;
-  }
-  return all;
-}
-
 type Job = { kind: 'adaptive'; id: number; grid: CoarseMass } | { kind: 'terms'; id: number; grids: CoarseMass[]; children: number };
 
 /** A job as sent to a worker: one coarse grid summed adaptively, or the grids of a parent's interaction terms. */
@@ -143,25 +127,22 @@ export function gravityBatch(jobs: readonly GravityJobData[], tolerance: number)
   return jobs.map((j) => ('adaptive' in j ? adaptiveSelfEnergy(j.adaptive, tolerance) : coarseEnergies(j.terms)));
 }
 
-/** Computes the gravitational energy (erg) of every node; spreads the sums over the pool when given; `listed`: listedCells of lists.cells, if already made. */
+/** Computes the gravitational energy (erg) of every node from its listed cells (nodeCellLists); cubic cells of side dx (cm); spreads the sums over the pool when given. */
 export async function nodeGravity(
   tree: MergeTree,
-  lists: { cells: Int32Array; start: Int32Array; end: Int32Array },
-  density: Float32Array,
-  shape: { nx: number; ny: number; nz: number },
+  lists: NodeCells,
   dx: number,
   gravityCells: number,
   tolerance: number,
   pool: WorkerPool | null,
   onDone: (done: number) => void = () => {},
-  listed?: CellSet,
 ): Promise<NodeGravity> {
   const n = tree.count;
   const out: NodeGravity = { energy: new Float64Array(n), factor: new Int32Array(n), cellsPerSide: new Int32Array(n), relativeError: new Float64Array(n) };
   const corrF = new Float64Array(n), corr2F = new Float64Array(n), isTerms = new Uint8Array(n);
   const vol = dx * dx * dx;
-  // coordinates and densities of the listed cells, once, so deposits need no index arithmetic
-  const all = listed ?? listedCells(lists.cells, density, shape);
+  // coordinates and densities of the listed cells, so deposits need no index arithmetic
+  const all = lists.listed;
   const cellsOf = (id: number): CellSet => {
     const a = lists.start[id]!, b = lists.end[id]!;
     return { i: all.i.subarray(a, b), j: all.j.subarray(a, b), k: all.k.subarray(a, b), rho: all.rho.subarray(a, b) };

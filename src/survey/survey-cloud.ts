@@ -13,7 +13,8 @@ import { runWhole, type WorkerPool } from '../grid/pool.js';
 import { cellCount, cellSize, cellVolume } from '../grid/grid3.js';
 import { silentProgress, type ProgressSink } from '../progress.js';
 import { startMergeTree, awaitMergeTree, type PendingTree } from './tree-task.js';
-import { nodeMoments, nodeCellLists, CH, NODE_CHANNELS } from './node-moments.js';
+import { nodeMoments, CH, NODE_CHANNELS } from './node-moments.js';
+import { nodeCellLists } from './cell-lists.js';
 import { nodeGravity, type NodeGravity } from './node-gravity.js';
 import { nodeVerdicts, EXPECTED_RULE } from './node-verdicts.js';
 import { massSpectrum } from './mass-spectrum.js';
@@ -76,10 +77,9 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
   let gravity: NodeGravity = { energy: new Float64Array(0), factor: new Int32Array(0), cellsPerSide: new Int32Array(0), relativeError: new Float64Array(0) };
   if (tree.count > 0) {
     // the tree's worker (when it had one) listed each node's cells already
-    const made = built.listed;
-    const lists = made ? made.lists : nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots);
+    const lists = built.lists ?? nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, input.density, g);
     const sg = progress.stage('survey: self-gravity', tree.count);
-    gravity = await nodeGravity(tree, lists, input.density, g, dx, options.gravityCells, tolerance, pool, (d) => sg.update(d), made?.listed);
+    gravity = await nodeGravity(tree, lists, dx, options.gravityCells, tolerance, pool, (d) => sg.update(d));
     sg.stop();
   }
   timings.gravity = now() - t;

@@ -4,7 +4,7 @@
  * the outputs that do not need the tree); the survey awaits it. The worker runs the same
  * buildMergeTree on the same shared density, so the tree and the labels are those of an inline
  * build. Without a worker (one thread, or a density not on shared memory) the tree is built
- * inline when awaited. After the tree the same worker lists each node's cells (listTreeCells),
+ * inline when awaited. After the tree the same worker lists each node's cells (nodeCellLists),
  * which the self-gravity needs, while the main thread is still busy with other outputs.
  */
 import { onSharedMemory, type WorkerPool } from '../grid/pool.js';
@@ -13,9 +13,7 @@ import { cellCount, cellVolume } from '../grid/grid3.js';
 import type { ProgressSink } from '../progress.js';
 import { buildMergeTree, type MergeTree, type TreeLimits } from './merge-tree.js';
 import type { SurveyOptions } from './types.js';
-import { nodeCellLists } from './node-moments.js';
-import { listedCells } from './node-gravity.js';
-import type { CellSet } from './self-gravity.js';
+import { nodeCellLists, type NodeCells } from './cell-lists.js';
 
 /** A merge tree being built (or to be built inline): the floor it uses and how to get it. */
 export interface PendingTree {
@@ -38,23 +36,8 @@ export interface PendingTree {
 export interface BuiltTree {
   readonly tree: MergeTree;
   readonly seconds: number;
-  readonly listed: ListedCells | null;
-}
-
-/** Per-node cell lists (see nodeCellLists) and the listed cells' indices and densities, on shared memory. */
-export interface ListedCells {
-  readonly lists: { cells: Int32Array; start: Int32Array; end: Int32Array };
-  readonly listed: CellSet;
-}
-
-/** nodeCellLists and listedCells of a tree's labels (on the tree's worker), the lists copied to shared memory. */
-export function listTreeCells(
-  labels: Int32Array, parent: Int32Array, children: number[][], roots: number[], density: Float32Array, shape: { ny: number; nz: number },
-): ListedCells {
-  const l = nodeCellLists(labels, parent, children, roots);
-  const cells = new Int32Array(new SharedArrayBuffer(4 * l.cells.length));
-  cells.set(l.cells);
-  return { lists: { cells, start: l.start, end: l.end }, listed: listedCells(cells, density, shape, true) };
+  /** The nodes' cell lists (nodeCellLists, on shared memory) when the tree was built on a worker, else null. */
+  readonly lists: NodeCells | null;
 }
 
 /** Density floor of the survey, g/cm^3: options.floorDensity, or the cube's mean density when that is not a finite number >= 0. */
@@ -68,18 +51,18 @@ export function surveyFloor(density: Float32Array, options: Pick<SurveyOptions, 
 
 /**
  * The worker task: buildMergeTree writing labels into `labels` and its progress into `counter` (both
- * shared), then each node's cell list and the listed cells' indices and densities (listTreeCells).
+ * shared), then each node's cell list with the listed cells' indices and densities (nodeCellLists, on shared memory).
  */
 export function mergeTreeTask(
   density: Float32Array, shape: { nx: number; ny: number; nz: number }, floor: number, connectivity: 6 | 26,
   limits: TreeLimits, vol: number, labels: Int32Array, counter: Int32Array,
-): { tree: MergeTree; listed: ListedCells | null } {
+): { tree: MergeTree; lists: NodeCells | null } {
   const tree = buildMergeTree(density, shape, floor, connectivity, limits, vol, (done, total) => {
     Atomics.store(counter, 1, total);
     Atomics.store(counter, 0, done);
   }, labels);
-  const listed = tree.count > 0 ? listTreeCells(labels, tree.parent, tree.children, tree.roots, density, shape) : null;
-  return { tree, listed };
+  const lists = tree.count > 0 ? nodeCellLists(labels, tree.parent, tree.children, tree.roots, density, shape, true) : null;
+  return { tree, lists };
 }
 
 /** Starts the merge tree of `density` (g/cm^3) on `lane` (a pool whose worker nothing else uses), or prepares an inline build when lane is null. */
@@ -94,8 +77,8 @@ export function startMergeTree(density: Float32Array, grid: Grid3, options: Surv
   const counter = new Int32Array(new SharedArrayBuffer(8));
   const shape = { nx: grid.nx, ny: grid.ny, nz: grid.nz };
   const t0 = performance.now();
-  const running = lane.run<{ tree: MergeTree; listed: ListedCells | null }>('surveyMergeTree', [density, shape, floor, build.connectivity, build.limits, build.cellVolume, labels, counter])
-    .then((r) => ({ tree: r.tree, listed: r.listed, seconds: (performance.now() - t0) / 1000 }));
+  const running = lane.run<{ tree: MergeTree; lists: NodeCells | null }>('surveyMergeTree', [density, shape, floor, build.connectivity, build.limits, build.cellVolume, labels, counter])
+    .then((r) => ({ tree: r.tree, lists: r.lists, seconds: (performance.now() - t0) / 1000 }));
   // an unawaited failure is reported when awaited; do not let it surface as an unhandled rejection first
   running.catch(() => {});
   return { density, floor, floorRule: rule, running, counter, build, lane };
@@ -121,7 +104,7 @@ export async function awaitMergeTree(pending: PendingTree, progress: ProgressSin
     const t0 = performance.now();
     const { grid, connectivity, limits, cellVolume: vol } = pending.build;
     const tree = buildMergeTree(pending.density, grid, pending.floor, connectivity, limits, vol, (done, total) => st.update(Math.floor((100 * done) / total)));
-    return { tree, seconds: (performance.now() - t0) / 1000, listed: null };
+    return { tree, seconds: (performance.now() - t0) / 1000, lists: null };
   } finally {
     st.stop();
   }

@@ -1,0 +1,74 @@
+/**
+ * Cells of every merge-tree node (own plus descendants) as contiguous slices of one list, with
+ * each listed cell's grid indices and density, which the self-gravity deposits read.
+ *
+ * Grid: shape (nx, ny, nz), C order, flat index (i*ny + j)*nz + k; density g/cm^3.
+ * Node t owns cells[start[t] .. end[t]). Nodes are ordered depth-first so each subtree is a
+ * contiguous range; labelled cells are then counting-sorted by their node's position in one
+ * pass over the grid in index order (so each node's cells are in index order), which also
+ * writes their indices and densities: no second, scattered pass over the density.
+ */
+import type { CellSet } from './self-gravity.js';
+
+/** Per-node cell lists and the listed cells (flat index, i, j, k, density). */
+export interface NodeCells {
+  readonly cells: Int32Array;
+  readonly start: Int32Array;
+  readonly end: Int32Array;
+  /** Grid indices and densities (g/cm^3) of `cells`, in the same order. */
+  readonly listed: CellSet;
+}
+
+/** Lists each node's cells from the labels (node id per cell, -1 none); arrays on shared memory when `shared`. */
+export function nodeCellLists(
+  labels: Int32Array, parent: Int32Array, children: readonly number[][], roots: readonly number[],
+  density: Float32Array, shape: { nx: number; ny: number; nz: number }, shared = false,
+): NodeCells {
+  const { nx, ny, nz } = shape;
+  if (labels.length !== nx * ny * nz || density.length !== labels.length) throw new RangeError(`labels (${labels.length}) and density (${density.length}) must hold ${nx}x${ny}x${nz} cells`);
+  const count = parent.length;
+  const pos = new Int32Array(count);
+  const last = new Int32Array(count); // last DFS position inside the subtree
+  let next = 0;
+  const stack: Array<[number, number]> = [];
+  for (const r of roots) {
+    stack.push([r, 0]);
+    pos[r] = next++;
+    while (stack.length) {
+      const top = stack[stack.length - 1]!;
+      const [t, ci] = top;
+      const kids = children[t]!;
+      if (ci < kids.length) {
+        top[1]++;
+        const ch = kids[ci]!;
+        pos[ch] = next++;
+        stack.push([ch, 0]);
+      } else {
+        last[t] = next - 1;
+        stack.pop();
+      }
+    }
+  }
+  const own = new Int32Array(count + 1);
+  for (let c = 0; c < labels.length; c++) { const id = labels[c]!; if (id >= 0) own[pos[id]! + 1]!++; }
+  for (let p = 0; p < count; p++) own[p + 1]! += own[p]!;
+  const m = own[count]!;
+  const ints = (): Int32Array => (shared ? new Int32Array(new SharedArrayBuffer(4 * m)) : new Int32Array(m));
+  const cells = ints();
+  const listed: CellSet = { i: ints(), j: ints(), k: ints(), rho: shared ? new Float32Array(new SharedArrayBuffer(4 * m)) : new Float32Array(m) };
+  const { i: I, j: J, k: K, rho } = listed;
+  const fill = own.slice(0, count);
+  for (let i = 0, c = 0; i < nx; i++) {
+    for (let j = 0; j < ny; j++) {
+      for (let k = 0; k < nz; k++, c++) {
+        const id = labels[c]!;
+        if (id < 0) continue;
+        const q = fill[pos[id]!]!++;
+        cells[q] = c; I[q] = i; J[q] = j; K[q] = k; rho[q] = density[c]!;
+      }
+    }
+  }
+  const start = new Int32Array(count), end = new Int32Array(count);
+  for (let t = 0; t < count; t++) { start[t] = own[pos[t]!]!; end[t] = own[last[t]! + 1]!; }
+  return { cells, start, end, listed };
+}
