@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { pythonJson } from './helpers/python.js';
-import { realForward3, realInverse3, halfSpectrumLength, halfLength, complexAxis, axisLineCount, signedWavenumber } from '../src/grid/fft3.js';
+import { realForward3, realInverse3, halfSpectrumLength, halfLength, complexAxis, axisLineCount, signedWavenumber, bandColumns, bandSpectrumLength, inverseZ } from '../src/grid/fft3.js';
 import { cubicGrid } from '../src/grid/grid3.js';
 
 function pseudoRandom(n: number, seed = 7): Float32Array {
@@ -74,6 +74,30 @@ print(json.dumps([float(x) for x in np.stack([s.real,s.imag],-1).ravel()]))`;
     const hinted = new Float64Array(plain.length);
     realInverse3(spec.slice(), g, hinted, band);
     expect(Buffer.from(hinted.buffer).equals(Buffer.from(plain.buffer))).toBe(true);
+    // The band spectrum (kz columns 0..band + 1 only) gives the same bytes too
+    const nc = bandColumns(g, band);
+    expect(nc).toBe(5);
+    const compact = new Float64Array(bandSpectrumLength(g, band));
+    for (let line = 0; line < g.nx * g.ny; line++) compact.set(spec.subarray(line * nh * 2, line * nh * 2 + nc * 2), line * nc * 2);
+    const banded = new Float64Array(plain.length);
+    realInverse3(compact, g, banded, band);
+    expect(Buffer.from(banded.buffer).equals(Buffer.from(plain.buffer))).toBe(true);
+    // the z pass over line ranges, and a lone line (no partner), read the band spectrum as the full one
+    const full = spec.slice();
+    complexAxis(full, g, 0, true);
+    complexAxis(full, g, 1, true);
+    const compact2 = new Float64Array(bandSpectrumLength(g, band));
+    for (let line = 0; line < g.nx * g.ny; line++) compact2.set(spec.subarray(line * nh * 2, line * nh * 2 + nc * 2), line * nc * 2);
+    complexAxis(compact2, g, 0, true, 0, -1, band);
+    complexAxis(compact2, g, 1, true, 0, -1, band);
+    for (const [a, b] of [[0, 8], [8, 64], [64, 101], [101, g.nx * g.ny]]) {
+      const want = new Float64Array(plain.length), got = new Float64Array(plain.length);
+      inverseZ(full, want, g, a, b);
+      inverseZ(compact2, got, g, a, b, band);
+      expect(Buffer.from(got.buffer).equals(Buffer.from(want.buffer))).toBe(true);
+    }
+    // a band spectrum too narrow for the hint is refused
+    expect(() => realInverse3(new Float64Array(bandSpectrumLength(g, 1)), g, banded, band)).toThrow(RangeError);
     // Reference: numpy.fft.irfftn (pocketfft) of the same half spectrum.
     const py = `import sys,json,numpy as np
 d=np.array(json.loads(sys.stdin.read())).reshape(16,8,${nh},2)

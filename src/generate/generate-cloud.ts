@@ -17,7 +17,7 @@ import { InputError } from '../input-error.js';
 import { cellCount, cubicGrid, type Grid3 } from '../grid/grid3.js';
 import { createPool, defaultWorkerCount, type WorkerPool } from '../grid/pool.js';
 import { sharedSpectrum } from '../grid/fft3-parallel.js';
-import { halfSpectrumLength } from '../grid/fft3.js';
+import { bandSpectrumLength } from '../grid/fft3.js';
 import { seedKey } from '../grid/random-field.js';
 import { soundSpeed } from '../physics/sound-speed.js';
 import { M_SUN } from '../physics/constants.js';
@@ -57,12 +57,25 @@ function spectraNeeded(config: Config): number {
   return config.cloud.turbulence || config.cloud.structure.kind === 'lognormal' ? 1 : 0;
 }
 
-/** Peak bytes of generating the config at cells^3: Float32 fields, mask, spectra and ~64 MB overhead. */
+/**
+ * Highest k_max (cycles per box, at most the Nyquist wavenumber cells/2) of the spectra the generation
+ * transforms: the scratch spectrum is a band spectrum holding kz up to it (fft3.ts), -Infinity when none.
+ */
+function spectrumBand(config: Config, cells: number): number {
+  const c = config.cloud;
+  const nyquist = cells / 2;
+  let band = -Infinity;
+  if (c.turbulence) band = Math.max(band, Math.min(c.turbulence.k_max ?? nyquist, nyquist));
+  if (c.structure.kind === 'lognormal') band = Math.max(band, Math.min(c.structure.k_max ?? nyquist, nyquist));
+  return band;
+}
+
+/** Peak bytes of generating the config at cells^3: Float32 fields, mask, the scratch band spectrum and ~64 MB overhead. */
 export function estimateGenerateBytes(config: Config, cells: number): number {
   const g: Grid3 = { nx: cells, ny: cells, nz: cells, boxSize: 1 };
   const n = cellCount(g);
   const fields = 4 * n * (1 + 3 + 1 + (config.cloud.magnetic ? 3 : 0)) + n;
-  return fields + spectraNeeded(config) * halfSpectrumLength(g) * 8 + 64 * 2 ** 20;
+  return fields + spectraNeeded(config) * bandSpectrumLength(g, spectrumBand(config, cells)) * 8 + 64 * 2 ** 20;
 }
 
 /** Target 3D velocity dispersion of the turbulence, cm/s (null without turbulence). */
@@ -123,7 +136,9 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
   if (dims.extent > g.boxSize * (1 + 1e-12)) notes.push(`the box (grid.box_size) is smaller than the cloud's extent: the cloud is cut at the box faces and its mass put in the part that fits`);
 
   const nSpec = spectraNeeded(config);
-  const specs = Array.from({ length: nSpec }, () => (shared ? sharedSpectrum(g) : new Float64Array(halfSpectrumLength(g))));
+  // one scratch spectrum, holding kz up to the highest band transformed (fft3.ts: band spectrum)
+  const band = spectrumBand(config, cells);
+  const specs = Array.from({ length: nSpec }, () => (shared ? sharedSpectrum(g, band) : new Float64Array(bandSpectrumLength(g, band))));
   const temperature = field();
   const velocity: [Float32Array, Float32Array, Float32Array] = [field(), field(), field()];
 

@@ -20,10 +20,11 @@
  * of s do not depend on c. (A statistical preview of where turbulence piles up gas, not the
  * outcome of a simulation.)
  *
- * Kernels fill x-index rows [start, end); results do not depend on how rows are split.
+ * Kernels fill x-index rows [start, end); results do not depend on how rows are split. The spectrum
+ * may be a band spectrum (fft3.ts: the first kz columns only) that holds kz <= k_max.
  */
 import type { Grid3 } from '../grid/grid3.js';
-import { halfLength, signedWavenumber } from '../grid/fft3.js';
+import { halfLength, signedWavenumber, spectrumColumns } from '../grid/fft3.js';
 import { modeGaussian } from '../grid/random-field.js';
 
 /** Random-number streams of the generator (see the file comment). */
@@ -63,9 +64,13 @@ function forBand(
 ): void {
   const { nx, ny, nz } = g;
   const nh = halfLength(nz);
-  const rowLen = ny * nh * 2;
+  // kz columns held: all nh, or a band spectrum's first few (fft3.ts)
+  const nc = specs.length > 0 ? spectrumColumns(specs[0]!, g) : nh;
+  for (const s of specs) if (s.length !== specs[0]!.length) throw new RangeError('forBand: the spectra differ in size');
+  const rowLen = ny * nc * 2;
   for (const s of specs) s.fill(0, start * rowLen, end * rowLen);
   const cMax = Math.min(nh - 1, Math.floor(kMax));
+  if (cMax >= nc) throw new RangeError(`a band spectrum of ${nc} kz columns cannot hold modes up to k_max = ${kMax}`);
   for (let i = start; i < end; i++) {
     const kx = signedWavenumber(i, nx);
     if (Math.abs(kx) > kMax || 2 * Math.abs(kx) === nx) continue;
@@ -76,7 +81,7 @@ function forBand(
         if (2 * c === nz) continue;
         const k = Math.sqrt(kx * kx + ky * ky + c * c);
         if (k === 0 || k < kMin || k > kMax) continue;
-        const idx = ((i * ny + j) * nh + c) * 2;
+        const idx = ((i * ny + j) * nc + c) * 2;
         if (c === 0 && (ky < 0 || (ky === 0 && kx < 0))) fn(idx, -kx, -ky, 0, k, true);
         else fn(idx, kx, ky, c, k, false);
       }

@@ -10,6 +10,12 @@
  *
  * The passes take a line range [start, end) so that worker threads can share one
  * SharedArrayBuffer-backed spectrum and each transform a slice of the lines.
+ *
+ * Band spectra: an inverse transform with a band hint (complexAxis) may keep only the first
+ * nc = bandColumns(g, band) kz columns, element ((i*ny + j)*nc + kz)*2 (the column count is read
+ * from the array's length). Under the hint every column above the band holds the same values
+ * (the transform of the +0 modes), so column band + 1 stands for them all: the same numbers as the
+ * full half spectrum in a quarter of the memory at kz_max = nz/8.
  */
 import FFT from 'fft.js';
 import type { Grid3 } from './grid3.js';
@@ -48,21 +54,44 @@ export function assertFftShape(g: Grid3): void {
   }
 }
 
+/** kz columns a band spectrum keeps for `band` (cycles per box): kz <= band and one above, at most nz/2 + 1. */
+export function bandColumns(g: Grid3, band: number): number {
+  const nh = halfLength(g.nz);
+  return Number.isFinite(band) && band >= 0 ? Math.min(nh, Math.floor(band) + 2) : nh;
+}
+
+/** Length of the Float64Array of a band spectrum of grid g (see bandColumns). */
+export function bandSpectrumLength(g: Grid3, band: number): number {
+  return g.nx * g.ny * bandColumns(g, band) * 2;
+}
+
+/** kz columns held by spec (a half or band spectrum of g); throws RangeError if its length fits neither. */
+export function spectrumColumns(spec: Float64Array, g: Grid3): number {
+  const nc = spec.length / (2 * g.nx * g.ny);
+  if (!Number.isInteger(nc) || nc < 1 || nc > halfLength(g.nz)) throw new RangeError(`spectrum of ${spec.length} values fits no half spectrum of ${g.nx}x${g.ny}x${g.nz}`);
+  return nc;
+}
+
 /** Number of z lines (nx*ny) a z pass works on. */
 export function zLineCount(g: Grid3): number {
   return g.nx * g.ny;
 }
 
-/** Number of lines a complex pass along axis 0 (x) or 1 (y) works on. */
-export function axisLineCount(g: Grid3, axis: 0 | 1): number {
-  const nh = halfLength(g.nz);
-  return axis === 0 ? g.ny * nh : g.nx * nh;
+/** Number of lines a complex pass along axis 0 (x) or 1 (y) works on; `columns`: kz columns held (spectrumColumns). */
+export function axisLineCount(g: Grid3, axis: 0 | 1, columns = halfLength(g.nz)): number {
+  return axis === 0 ? g.ny * columns : g.nx * columns;
+}
+
+/** Throws RangeError unless a spectrum of nc columns holds what a pass with this band reads. */
+function assertColumns(g: Grid3, nc: number, band: number): void {
+  if (nc < halfLength(g.nz) && !(Math.floor(band) + 2 <= nc)) throw new RangeError(`a band spectrum of ${nc} kz columns needs a band hint below ${nc - 1}, got ${band}`);
 }
 
 /** Forward real transform of z lines [start, end) of `field` into the half spectrum `spec`. */
 export function forwardZ(field: ArrayLike<number>, spec: Float64Array, g: Grid3, start = 0, end = zLineCount(g)): void {
   const { nz } = g;
   const nh = halfLength(nz);
+  if (spectrumColumns(spec, g) !== nh) throw new RangeError('forwardZ needs a full half spectrum, not a band spectrum');
   const p = plan(nz);
   const input = new Float64Array(nz);
   const out = new Float64Array(2 * nz);
@@ -102,11 +131,15 @@ function constantLineTransform(p: FFT, n: number, inverse: boolean, re: number, 
  * direction, same band) produced, are not read: their known input is transformed once and
  * written (not even written when it is +0 throughout, as it is for fft.js: the spectrum already
  * holds +0 there). Same bytes as without the hint; pass it only when the promise holds. The lines
- * go through transformBatch (fft.js's operations, fft.js's bits) BLOCK at a time.
+ * go through transformBatch (fft.js's operations, fft.js's bits) BLOCK at a time. `spec` may be a
+ * band spectrum (see the file comment) when the band hint is given; `end` < 0: every line.
  */
-export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, start = 0, end = axisLineCount(g, axis), band = Infinity): void {
+export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, start = 0, end = -1, band = Infinity): void {
   const { nx, ny } = g;
-  const nh = halfLength(g.nz);
+  // kz columns held (all nz/2 + 1, or fewer in a band spectrum)
+  const nh = spectrumColumns(spec, g);
+  assertColumns(g, nh, band);
+  if (end < 0) end = axisLineCount(g, axis, nh);
   const n = axis === 0 ? nx : ny;
   const stride = axis === 0 ? ny * nh * 2 : nh * 2;
   const p = plan(n);
@@ -194,6 +227,9 @@ const Z_BATCH = 8;
 export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array, g: Grid3, start = 0, end = zLineCount(g), band = Infinity): void {
   const { nz } = g;
   const nh = halfLength(nz);
+  // kz columns stored per line (a band spectrum holds fewer than nh)
+  const nc = spectrumColumns(spec, g);
+  assertColumns(g, nc, band);
   // kz <= last are read; kz in (last, nh) equal kz = last + 1 (when last + 1 < nh)
   const last = Math.min(nh - 1, Math.floor(band));
   const zb = new Float64Array(2 * nz * Z_BATCH);
@@ -205,8 +241,8 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
     const P2 = 2 * P;
     for (let q = 0; q < P; q++) {
       const line = start + 2 * (first + q);
-      const a = line * nh * 2;
-      const b = (line + 1) * nh * 2;
+      const a = line * nc * 2;
+      const b = (line + 1) * nc * 2;
       // Hermitian extension: X[k] = conj(X[nz - k]) for k > nz/2 (same operations as k < nh with sign -1)
       for (let k = 0; k <= last; k++) {
         const ar = spec[a + 2 * k]!;
@@ -252,15 +288,17 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
   if ((end - start) % 2 === 1) {
     // the last line has no partner: Z = A alone (the same operations as a pair with B = 0)
     const line = end - 1;
-    const a = line * nh * 2;
+    const a = line * nc * 2;
     const p = plan(nz);
     const z = new Float64Array(2 * nz);
     const out = new Float64Array(2 * nz);
     for (let k = 0; k < nz; k++) {
       const src = k < nh ? k : nz - k;
       const sgn = k < nh ? 1 : -1;
-      const ar = spec[a + 2 * src]!;
-      const ai = sgn * spec[a + 2 * src + 1]!;
+      // columns above last hold the value of column last + 1 (band hint)
+      const col = src > last ? last + 1 : src;
+      const ar = spec[a + 2 * col]!;
+      const ai = sgn * spec[a + 2 * col + 1]!;
       z[2 * k] = ar - 0;
       z[2 * k + 1] = ai + 0;
     }
@@ -285,7 +323,8 @@ export function realForward3(field: ArrayLike<number>, g: Grid3, spec: Float64Ar
  */
 export function realInverse3(spec: Float64Array, g: Grid3, field: Float32Array | Float64Array, band = Infinity): void {
   assertFftShape(g);
-  complexAxis(spec, g, 0, true, 0, axisLineCount(g, 0), band);
-  complexAxis(spec, g, 1, true, 0, axisLineCount(g, 1), band);
+  const nc = spectrumColumns(spec, g);
+  complexAxis(spec, g, 0, true, 0, axisLineCount(g, 0, nc), band);
+  complexAxis(spec, g, 1, true, 0, axisLineCount(g, 1, nc), band);
   inverseZ(spec, field, g, 0, zLineCount(g), band);
 }
