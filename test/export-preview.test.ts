@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import JSZip from 'jszip';
 import { fixtureCloud } from './helpers/export-cloud.js';
-import { writePreview, readPreview, previewSize, ZIP_DATE } from '../src/export/preview.js';
+import { writePreview, readPreview, previewSize, previewBlocks, ZIP_DATE } from '../src/export/preview.js';
 import { PC } from '../src/physics/constants.js';
 import { InputError } from '../src/input-error.js';
 
@@ -68,6 +68,16 @@ describe('writePreview and readPreview', () => {
     expect(r.manifest.particles).toEqual({ file: 'particles.f32', count: 2, unit: 'pc' });
     expect(r.fragmentsCsv).toBe('id,mass_msun\n');
     expect(r.summary).toEqual(p.summary);
+  });
+
+  it('gives the same bytes with its label-free block reductions made beforehand (previewBlocks), and refuses blocks of another size', async () => {
+    const p = parts(8, 4);
+    const a = path.join(dir, 'a.zip'), b = path.join(dir, 'b.zip');
+    const ha = await writePreview(a, p, false);
+    const hb = await writePreview(b, { ...p, blocks: previewBlocks(8, 4, p.cloud.density, p.jeansNumber) }, false);
+    expect(hb).toBe(ha);
+    expect(readFileSync(b).equals(readFileSync(a))).toBe(true);
+    await expect(writePreview(path.join(dir, 'c.zip'), { ...p, blocks: previewBlocks(8, 2, p.cloud.density, p.jeansNumber) }, false)).rejects.toThrow(RangeError);
   });
 
   it('writes the same bytes twice, dates every entry 1980-01-01 and refuses to replace without force', async () => {

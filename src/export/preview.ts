@@ -35,6 +35,8 @@ export interface PreviewParts {
   particles?: Float32Array | Float64Array | null;
   previewCells: number;
   toolVersion: string;
+  /** previewBlocks of the cloud's density and jeansNumber at previewSize(n, previewCells), when made already (e.g. on a worker). */
+  blocks?: PreviewBlocks;
 }
 
 /** The largest divisor of n that is at most want (at least 1). */
@@ -44,12 +46,20 @@ export function previewSize(n: number, want: number): number {
   return c;
 }
 
-/** Block reductions of the full grid: mean density, max Jeans number, label of the densest cell. */
-export function downsample(n: number, c: number, density: Float32Array, jeans: Float32Array, labels: Int32Array): { density: Float32Array; jeans: Float32Array; labels: Int32Array } {
+/** Block reductions that need no labels: mean density (g/cm^3), maximum Jeans number, and the flat index of each block's densest cell (first in index order; -1 none). */
+export interface PreviewBlocks {
+  readonly cells: number;
+  readonly density: Float32Array;
+  readonly jeans: Float32Array;
+  readonly densest: Float64Array;
+}
+
+/** PreviewBlocks of an n^3 grid on c^3 blocks (c divides n): density in g/cm^3, Jeans numbers dimensionless. */
+export function previewBlocks(n: number, c: number, density: Float32Array, jeans: Float32Array): PreviewBlocks {
   const b = n / c;
   const d = new Float64Array(c * c * c);
   const j = new Float32Array(c * c * c).fill(-Infinity);
-  const l = new Int32Array(c * c * c).fill(-1);
+  const densest = new Float64Array(c * c * c).fill(-1);
   const peak = new Float32Array(c * c * c).fill(-Infinity);
   for (let i = 0; i < n; i++) {
     const bi = (i / b) | 0;
@@ -63,14 +73,21 @@ export function downsample(n: number, c: number, density: Float32Array, jeans: F
         d[q] += v;
         const jn = jeans[row + k]!;
         if (jn > j[q]!) j[q] = jn;
-        if (v > peak[q]!) { peak[q] = v; l[q] = labels[row + k]!; }
+        if (v > peak[q]!) { peak[q] = v; densest[q] = row + k; }
       }
     }
   }
   const inv = 1 / (b * b * b);
   const df = new Float32Array(c * c * c);
   for (let q = 0; q < df.length; q++) df[q] = d[q]! * inv;
-  return { density: df, jeans: j, labels: l };
+  return { cells: c, density: df, jeans: j, densest };
+}
+
+/** Label (tree node id, -1 none) of each block's densest cell. */
+export function blockLabels(densest: Float64Array, labels: Int32Array): Int32Array {
+  const l = new Int32Array(densest.length);
+  for (let q = 0; q < densest.length; q++) l[q] = densest[q]! >= 0 ? labels[densest[q]!]! : -1;
+  return l;
 }
 
 function range(a: Float32Array | Int32Array): { min: number; max: number } {
@@ -87,7 +104,9 @@ export async function writePreview(zipPath: string, parts: PreviewParts, force: 
   const N = n * n * n;
   if (parts.jeansNumber.length !== N || parts.labels.length !== N) throw new RangeError(`jeansNumber and labels must hold ${N} cells`);
   const c = previewSize(n, parts.previewCells);
-  const ds = downsample(n, c, parts.cloud.density, parts.jeansNumber, parts.labels);
+  const blocks = parts.blocks ?? previewBlocks(n, c, parts.cloud.density, parts.jeansNumber);
+  if (blocks.cells !== c) throw new RangeError(`preview blocks of ${blocks.cells} cells per side given, ${c} needed`);
+  const ds = { density: blocks.density, jeans: blocks.jeans, labels: blockLabels(blocks.densest, parts.labels) };
   const field = (file: string, dtype: 'float32' | 'int32', unit: string, a: Float32Array | Int32Array): PreviewField => ({ file, dtype, unit, ...range(a) });
   let particles: Float32Array | null = null;
   if (parts.particles && parts.particles.length >= 3) {

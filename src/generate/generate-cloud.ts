@@ -186,16 +186,30 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
   else scaleCloudCells(0, N, density, inside, massCorrection);
   // the density is final: the caller may start on it (the merge tree) while the rest is made
   onDensity?.(density, g, dims.ambientDensity);
-  const { centre } = cloudMassCentre(g, density, inside);
 
-  // 5. turbulence
-  if (c.turbulence && sigma3D !== null) {
+  // 5. turbulence: its transforms are queued on the pool first; this thread meanwhile finds the centre of mass
+  const eos: Eos = c.eos.kind === 'barotropic' ? { kind: 'barotropic', criticalDensity: c.eos.critical_density, gamma: c.eos.gamma } : { kind: 'isothermal' };
+  // the temperature needs only the final density: on the pool, it runs while this thread removes the net momentum
+  let temperatureP: Promise<unknown> | null = null;
+  const startTemperature = (): void => {
+    if (!pool || temperatureP) return;
+    temperatureP = pool.runRanges('genTemperature', N, [temperature, density, inside, eos, c.temperature, dims.ambientTemperature]);
+    temperatureP.catch(() => {}); // awaited in step 7; a failure is reported there
+  };
+  const turbulence = c.turbulence && sigma3D !== null ? c.turbulence : null;
+  let done = 0;
+  let raw: Promise<void> | null = null;
+  if (turbulence) {
     st = progress.stage('cloud: turbulent velocity', 5);
-    let done = 0;
-    const p = { key, index: c.turbulence.spectrum_index, kMin: c.turbulence.k_min, kMax: kMaxV!, zeta };
-    await rawTurbulence(g, pool, p, specs[0]!, velocity, () => st.update(++done));
+    const p = { key, index: turbulence.spectrum_index, kMin: turbulence.k_min, kMax: kMaxV!, zeta };
+    raw = rawTurbulence(g, pool, p, specs[0]!, velocity, () => st.update(++done));
+  }
+  const { centre } = cloudMassCentre(g, density, inside);
+  if (turbulence && sigma3D !== null) {
+    await raw;
+    startTemperature();
     let rms = removeNetMomentum(g, density, inside, velocity);
-    if (c.turbulence.zero_angular_momentum) {
+    if (turbulence.zero_angular_momentum) {
       removeNetAngularMomentum(g, density, inside, velocity, centre);
       rms = rmsSpeed(g, density, inside, velocity);
     }
@@ -220,9 +234,9 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
     addRigidRotation(g, inside, velocity, a.map((x) => x * omega), centre);
   }
 
-  // 7. temperature: cloud T (or the barotropic T(rho)) inside, ambient T outside
-  const eos: Eos = c.eos.kind === 'barotropic' ? { kind: 'barotropic', criticalDensity: c.eos.critical_density, gamma: c.eos.gamma } : { kind: 'isothermal' };
-  if (pool) await pool.runRanges('genTemperature', N, [temperature, density, inside, eos, c.temperature, dims.ambientTemperature]);
+  // 7. temperature: cloud T (or the barotropic T(rho)) inside, ambient T outside (on the pool: started above)
+  startTemperature();
+  if (temperatureP) await temperatureP;
   else fillTemperature(0, N, temperature, density, inside, eos, c.temperature, dims.ambientTemperature);
 
   // 8. magnetic field (uniform, cell-centred)

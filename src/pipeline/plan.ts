@@ -23,7 +23,7 @@ import { analyticBudget, gridResolution, resolutionSummary, costSummary, eosFrom
 import type { BudgetResult, GridResolution } from '../budget/types.js';
 import { budgetCloud } from './budget.js';
 import { writeGridExports } from '../export/grid-exports.js';
-import { writePreview } from '../export/preview.js';
+import { previewBlocks, previewSize, writePreview } from '../export/preview.js';
 import { writeFileAtomic } from '../export/atomic-file.js';
 import { renderReport } from '../report/html-report.js';
 import { buildSummary, cloudBlock, gridBlock, jsonText, withoutTimings } from '../report/build-summary.js';
@@ -150,9 +150,11 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     const timings: Record<string, number> = {};
     const nj = config.budget.grid.cells_per_jeans_length;
     const ex = config.export;
+    const previewCells = Math.min(ex.preview_cells, cells);
     const files: string[] = [];
     // Work on the finished cloud that does not need the survey, done beside it (see
-    // generateAndSurvey): the grid's Jeans numbers and the budget, the grid plots; the
+    // generateAndSurvey): the grid's Jeans numbers and the budget, the grid plots, the preview's
+    // label-free block reductions; the
     // initial-condition files are started here and awaited after the survey.
     const gridOutputs = async (cloud: Cloud) => {
       // Jeans numbers and histograms on the pool (into shared memory)
@@ -161,6 +163,10 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       const resP = runWhole(pool, 'budgetGridResolution', gridResolution, [cloud.grid, cloud.density, cloud.temperature, cloud.summary.mu, eos, nj, jmap]);
       const plotsP = buildGridPlots(cloud, resP, nj, undefined, pool);
       plotsP.catch(() => {}); // awaited below; a failure is reported there
+      // the preview's block reductions that need no labels, on the pool once the Jeans numbers are there
+      const n = cloud.grid.nx;
+      const blocksP = resP.then((r) => runWhole(pool, 'previewBlocks', previewBlocks, [n, previewSize(n, previewCells), cloud.density, r.jeansNumber]));
+      blocksP.catch(() => {}); // awaited below
       const budget = budgetForConfig(config);
       // the grid files are written in the background while the survey runs (no bar: the survey's show)
       const t = performance.now();
@@ -171,10 +177,10 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, silentProgress)
         .then(() => { timings.write_ic = (performance.now() - t) / 1000; });
       icWrite.catch(() => {}); // awaited after the survey; a failure is reported there
-      return { gridRes: await resP, gridPlots: await plotsP, budget, icWrite };
+      return { gridRes: await resP, gridPlots: await plotsP, budget, icWrite, previewBlocks: await blocksP };
     };
     const { cloud, survey, seconds, besides } = await generateAndSurvey(config, pool, progress, config.seed, cells, lane, gridOutputs);
-    const { gridRes: res, gridPlots, budget: bud, icWrite } = besides!;
+    const { gridRes: res, gridPlots, budget: bud, icWrite, previewBlocks: blocks } = besides!;
     Object.assign(timings, seconds);
     for (const [k, v] of Object.entries(survey.timings)) timings[`survey_${k}`] = v;
     const sw = progress.stage('writing grids', 1);
@@ -215,7 +221,7 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     put('report.html', renderReport(stable as Summary, plots, loaded.text));
     await writePreview(path.join(runDir, 'preview.zip'), {
       cloud, jeansNumber: res.jeansNumber, labels: survey.labels, summary: stable, tree, fragmentsCsv: csv, plots,
-      particles: null, previewCells: Math.min(ex.preview_cells, cells), toolVersion: TOOL_VERSION,
+      particles: null, previewCells, toolVersion: TOOL_VERSION, blocks,
     }, opts.force);
     files.push('preview.zip');
     timings.write = (performance.now() - t) / 1000;
