@@ -22,10 +22,6 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
   if (jmapOut && jmapOut.length !== n) throw new RangeError(`jmapOut has ${jmapOut.length} values, the grid ${n}`);
   const jmap = jmapOut ?? new Float32Array(n);
   const limit = 1 / cellsPerJeansLength;
-  let maxJ = 0;
-  let mass = 0;
-  let unresolvedMass = 0;
-  let count = 0;
   // J = dx / lambda_J is proportional to sqrt(rho / T) (c_s^2 ~ T): J = J(rho = 1, T = 1 K) sqrt(rho / T).
   const j1 = jeansNumber(dx, soundSpeed(1, mu), 1);
   const scalarT = typeof temperature === 'number' ? temperature : 0;
@@ -34,19 +30,47 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
   // a scalar is the base temperature T0 and follows the EOS here.
   const baro = eos.kind === 'barotropic' && field === null;
   const jUniform = field === null && !baro ? j1 / Math.sqrt(scalarT) : 0;
-  let lastRho = Number.NaN, lastT = Number.NaN, lastJ = 0;
-  for (let i = 0; i < n; i++) {
+  // running values: last rho, last T0, last J, max J, mass, unresolved mass, count (see jeansRows)
+  const run = Float64Array.of(Number.NaN, Number.NaN, 0, 0, 0, 0, 0);
+  const { nz } = grid;
+  for (let c = 0; c < n; c += ROW_BLOCK * nz) jeansRows(c, Math.min(n, c + ROW_BLOCK * nz), density, field, scalarT, baro ? eos : null, jUniform, j1, limit, jmap, run);
+  const maxJ = run[3]!, mass = run[4]!, unresolvedMass = run[5]!, count = run[6]!;
+  return {
+    jeansNumber: jmap,
+    jeansCellsMin: maxJ > 0 ? 1 / maxJ : Infinity,
+    unresolvedMassFraction: mass > 0 ? unresolvedMass / mass : 0,
+    cellsNeedingRefinement: count,
+  };
+}
+
+/**
+ * x-rows per call of jeansRows. The per-cell loop lives in a function called many times, so V8
+ * optimises it as a whole function (a single long call runs as on-stack-replaced code, which
+ * boxes every double it carries); the running values go through a Float64Array between calls.
+ */
+const ROW_BLOCK = 16;
+/** +Infinity and +0 read as float64 values (literals in the loop make V8 box each J). */
+const FLOAT_CONSTANTS = Float64Array.of(Infinity, 0);
+
+/** J of cells [a, b) into jmap (see gridResolution); run: last rho, last T0, last J, max J, mass, unresolved mass, count, updated. */
+function jeansRows(
+  a: number, b: number, density: Float32Array, field: Float32Array | null, scalarT: number, eos: Eos | null,
+  jUniform: number, j1: number, limit: number, jmap: Float32Array, run: Float64Array,
+): void {
+  const inf = FLOAT_CONSTANTS[0]!, zero = FLOAT_CONSTANTS[1]!;
+  let lastRho = run[0]!, lastT = run[1]!, lastJ = run[2]!, maxJ = run[3]!, mass = run[4]!, unresolvedMass = run[5]!, count = run[6]!;
+  for (let i = a; i < b; i++) {
     const rho = density[i]!;
     let j: number;
-    if (!(rho > 0)) j = 0;
+    if (!(rho > 0)) j = zero;
     else if (jUniform > 0) j = jUniform * Math.sqrt(rho);
     else {
       const t0 = field === null ? scalarT : field[i]!;
       // runs of equal (rho, T), as in a uniform ambient medium, reuse the value (the same result)
       if (rho === lastRho && t0 === lastT) j = lastJ;
       else {
-        const t = t0 * (baro ? eosTemperatureFactor(eos, rho) : 1);
-        j = t > 0 ? j1 * Math.sqrt(rho / t) : Infinity;
+        const t = t0 * (eos !== null ? eosTemperatureFactor(eos, rho) : 1);
+        j = t > 0 ? j1 * Math.sqrt(rho / t) : inf;
         lastRho = rho; lastT = t0; lastJ = j;
       }
     }
@@ -58,10 +82,5 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
       count++;
     }
   }
-  return {
-    jeansNumber: jmap,
-    jeansCellsMin: maxJ > 0 ? 1 / maxJ : Infinity,
-    unresolvedMassFraction: mass > 0 ? unresolvedMass / mass : 0,
-    cellsNeedingRefinement: count,
-  };
+  run[0] = lastRho; run[1] = lastT; run[2] = lastJ; run[3] = maxJ; run[4] = mass; run[5] = unresolvedMass; run[6] = count;
 }

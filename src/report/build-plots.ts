@@ -11,48 +11,9 @@ import type { GridResolution } from '../budget/types.js';
 import { toUnit } from '../physics/units.js';
 import type { DensityPdfPlot, JeansHistogramPlot, MassSpectrumPlot, PlotData, TreePlotNode, VelocitySpectrumPlot } from './plot-data.js';
 
-const PDF_BINS = 60;
-const JEANS_BINS = 50;
+import { densityPdf, jeansNumberHistogram } from './grid-histograms.js';
 
-/** Volume-weighted PDF of s = ln(rho/rho0) over the masked cells (all cells when mask is null); two tight passes, no per-cell allocation. */
-export function densityPdf(density: Float32Array, mask: Uint8Array | null, sigmaExpected: number | null): DensityPdfPlot | null {
-  let n = 0, sum = 0, lo = Infinity, hi = -Infinity;
-  for (let i = 0; i < density.length; i++) {
-    if (mask && !mask[i]) continue;
-    const r = density[i]!;
-    if (!(r > 0)) continue;
-    n++;
-    sum += r;
-    if (r < lo) lo = r;
-    if (r > hi) hi = r;
-  }
-  if (n < 2 || !(sum > 0)) return null;
-  const rho0 = sum / n;
-  let sLo = Math.log(lo / rho0), sHi = Math.log(hi / rho0);
-  if (!(sHi > sLo)) { sLo -= 0.5; sHi += 0.5; }
-  const width = (sHi - sLo) / PDF_BINS;
-  const counts = new Float64Array(PDF_BINS);
-  const lnRho0 = Math.log(rho0);
-  let m1 = 0, m2 = 0;
-  for (let i = 0; i < density.length; i++) {
-    if (mask && !mask[i]) continue;
-    const r = density[i]!;
-    if (!(r > 0)) continue;
-    const v = Math.log(r) - lnRho0;
-    m1 += v;
-    m2 += v * v;
-    const b = Math.min(PDF_BINS - 1, Math.max(0, Math.floor((v - sLo) / width)));
-    counts[b]! += 1;
-  }
-  const mean = m1 / n;
-  const sigma = Math.sqrt(Math.max(0, (m2 - n * mean * mean) / (n - 1)));
-  const centres: number[] = [], pdf: number[] = [];
-  for (let b = 0; b < PDF_BINS; b++) {
-    centres.push(sLo + (b + 0.5) * width);
-    pdf.push(counts[b]! / (n * width));
-  }
-  return { s: centres, pdf, rho0_gcc: rho0, sigma_s_measured: sigma, sigma_s_expected: sigmaExpected };
-}
+export { densityPdf, jeansHistogram, jeansNumberHistogram } from './grid-histograms.js';
 
 /**
  * Largest grid the report's velocity spectrum is computed on; finer grids are block-averaged to it.
@@ -120,43 +81,6 @@ export async function velocitySpectrum(cloud: Cloud, pool: WorkerPool | null = n
   const k: number[] = [], power: number[] = [];
   for (let i = 0; i < sp.k.length; i++) if (sp.power[i]! > 0 && sp.k[i]! <= kTop) { k.push(sp.k[i]!); power.push(sp.power[i]!); }
   return { k, power, input_index: s.velocitySpectrumIndex, k_min: s.kMin, k_max: s.kMax, cells: grid.nx };
-}
-
-/** Histogram of log10 J over the cells with J > 0, with the 1/N_J limit; two tight passes. */
-export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNumber'>, cellsPerJeansLength: number): JeansHistogramPlot | null {
-  const j = g.jeansNumber;
-  let lo = Infinity, hi = -Infinity;
-  for (let i = 0; i < j.length; i++) {
-    const v = j[i]!;
-    if (!(v > 0) || v === Infinity) continue;
-    if (v < lo) lo = v;
-    if (v > hi) hi = v;
-  }
-  if (!(hi >= lo)) return null;
-  let l0 = Math.log10(lo), l1 = Math.log10(hi);
-  if (!(l1 > l0)) { l0 -= 0.5; l1 += 0.5; }
-  const width = (l1 - l0) / JEANS_BINS;
-  const counts = new Float64Array(JEANS_BINS);
-  const inv = 1 / (width * Math.LN10);
-  // runs of equal values (a uniform ambient medium) reuse the bin (the same result)
-  let lastV = Number.NaN, lastB = 0;
-  for (let i = 0; i < j.length; i++) {
-    const v = j[i]!;
-    if (!(v > 0) || v === Infinity) continue;
-    if (v !== lastV) { lastV = v; lastB = Math.min(JEANS_BINS - 1, Math.max(0, Math.floor((Math.log(v) - l0 * Math.LN10) * inv))); }
-    counts[lastB]! += 1;
-  }
-  return {
-    log10_j_edges: Array.from({ length: JEANS_BINS + 1 }, (_, b) => l0 + b * width),
-    counts: Array.from(counts),
-    limit: 1 / cellsPerJeansLength,
-    cells_per_jeans_length: cellsPerJeansLength,
-  };
-}
-
-/** jeansHistogram of a bare Jeans-number map (the worker task's form). */
-export function jeansNumberHistogram(jeansNumber: Float32Array, cellsPerJeansLength: number): JeansHistogramPlot | null {
-  return jeansHistogram({ jeansNumber }, cellsPerJeansLength);
 }
 
 /** Candidate masses, fit and model curves in Msun. */
