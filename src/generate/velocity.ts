@@ -33,11 +33,30 @@ export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: Veloci
  * Zeroes v outside the cloud and subtracts the mass-weighted mean velocity of the cloud (cm/s).
  * Returns the mass-weighted rms speed (cm/s) of the result, as rmsSpeed would compute it.
  * One pass zeroes and sums (the sums of velocityMoments, same order), one subtracts and sums again.
+ * Each pass runs block by block through a kernel with its running sums in a Float64Array (the
+ * same additions in the same order; V8 then optimises the kernel as a whole function).
  */
 export function removeNetMomentum(g: Grid3, density: Float32Array, inside: Uint8Array, v: Vec3Field): number {
-  const [vx, vy, vz] = v;
-  let m = 0, px = 0, py = 0, pz = 0;
-  for (let c = 0; c < inside.length; c++) {
+  const n = inside.length;
+  const sums = new Float64Array(4); // m, px, py, pz
+  for (let a = 0; a < n; a += MOMENTUM_BLOCK) momentumSums(a, Math.min(n, a + MOMENTUM_BLOCK), density, inside, v[0], v[1], v[2], sums);
+  const dv = cellVolume(g);
+  const mass = sums[0]! * dv;
+  if (!(mass > 0)) return 0;
+  const mx = (sums[1]! * dv) / mass, my = (sums[2]! * dv) / mass, mz = (sums[3]! * dv) / mass;
+  const after = new Float64Array(2); // m, sum rho v^2
+  for (let a = 0; a < n; a += MOMENTUM_BLOCK) subtractMean(a, Math.min(n, a + MOMENTUM_BLOCK), density, inside, v[0], v[1], v[2], mx, my, mz, after);
+  const mass2 = after[0]! * dv;
+  return mass2 > 0 ? Math.sqrt((after[1]! * dv) / mass2) : 0;
+}
+
+/** Cells per kernel call of removeNetMomentum. */
+const MOMENTUM_BLOCK = 1 << 16;
+
+/** Zeroes v outside the cloud in cells [a, b) and adds rho, rho v to sums (m, px, py, pz). */
+function momentumSums(a: number, b: number, density: Float32Array, inside: Uint8Array, vx: Float32Array, vy: Float32Array, vz: Float32Array, sums: Float64Array): void {
+  let m = sums[0]!, px = sums[1]!, py = sums[2]!, pz = sums[3]!;
+  for (let c = a; c < b; c++) {
     if (!inside[c]) { vx[c] = 0; vy[c] = 0; vz[c] = 0; continue; }
     const rho = density[c]!;
     m += rho;
@@ -45,22 +64,22 @@ export function removeNetMomentum(g: Grid3, density: Float32Array, inside: Uint8
     py += rho * vy[c]!;
     pz += rho * vz[c]!;
   }
-  const dv = cellVolume(g);
-  const mass = m * dv;
-  if (!(mass > 0)) return 0;
-  const mx = (px * dv) / mass, my = (py * dv) / mass, mz = (pz * dv) / mass;
-  let m2 = 0, e = 0;
-  for (let c = 0; c < inside.length; c++) {
+  sums[0] = m; sums[1] = px; sums[2] = py; sums[3] = pz;
+}
+
+/** Subtracts (mx, my, mz) from v in cloud cells [a, b) and adds rho, rho |v|^2 of the stored values to sums (m, e). */
+function subtractMean(a: number, b: number, density: Float32Array, inside: Uint8Array, vx: Float32Array, vy: Float32Array, vz: Float32Array, mx: number, my: number, mz: number, sums: Float64Array): void {
+  let m2 = sums[0]!, e = sums[1]!;
+  for (let c = a; c < b; c++) {
     if (!inside[c]) continue;
     // the Float32 values that are stored, as velocityMoments would read them back
-    const a = Math.fround(vx[c]! - mx), b = Math.fround(vy[c]! - my), d = Math.fround(vz[c]! - mz);
-    vx[c] = a; vy[c] = b; vz[c] = d;
+    const p = Math.fround(vx[c]! - mx), q = Math.fround(vy[c]! - my), d = Math.fround(vz[c]! - mz);
+    vx[c] = p; vy[c] = q; vz[c] = d;
     const rho = density[c]!;
     m2 += rho;
-    e += rho * (a * a + b * b + d * d);
+    e += rho * (p * p + q * q + d * d);
   }
-  const mass2 = m2 * dv;
-  return mass2 > 0 ? Math.sqrt((e * dv) / mass2) : 0;
+  sums[0] = m2; sums[1] = e;
 }
 
 /** Adds omega x (r - centre) to v in cloud cells; omega in s^-1 (vector), centre in cm. */

@@ -131,7 +131,9 @@ export function buildMergeTree(
   // the root of the largest neighbouring region (union by size, sizes read from the top
   // nodes' cell counts; path halving keeps the chains short); which cell is a root does not
   // change the tree, only the regions do.
-  const st = new Int32Array(n);
+  // (the labels array itself: the state is dead before the labels are written)
+  if (labelsOut && labelsOut.length !== n) throw new RangeError(`labelsOut has ${labelsOut.length} values, shape holds ${n}`);
+  const st = labelsOut ? labelsOut.fill(0) : new Int32Array(n);
   const byRank = new Int32Array(m); // tentative node of the cell order[p]
 
   // tentative nodes
@@ -292,8 +294,8 @@ export function buildMergeTree(
     return r;
   };
   const newId = new Int32Array(count).fill(-1);
-  if (labelsOut && labelsOut.length !== n) throw new RangeError(`labelsOut has ${labelsOut.length} values, shape holds ${n}`);
-  const labels = (labelsOut ?? new Int32Array(n)).fill(-1);
+  // the union-find state is not read again: its array becomes the labels
+  const labels = st.fill(-1);
   let kept = 0;
   for (let t = 0; t < count; t++) if (alias[t] === t && !dropped[t]) newId[t] = kept++;
   for (let p = 0; p < m; p++) labels[order[p]!] = newId[resolve(byRank[p]!)]!;
