@@ -28,11 +28,14 @@ export async function applyLognormalStructure(
   onStep();
   await realInverse3Parallel(pool, spec, g, scratch, p.kMax);
   onStep();
-  let n = 0, s1 = 0;
-  for (let c = 0; c < inside.length; c++) if (inside[c]) { n++; s1 += scratch[c]!; }
+  // mean and standard deviation of s over the cloud, in cell order, block by block (see cloudSums)
+  const run = new Float64Array(2);
+  for (let a = 0; a < inside.length; a += BLOCK) cloudSums(a, Math.min(inside.length, a + BLOCK), scratch, inside, run);
+  const n = run[0]!, s1 = run[1]!;
   const mean = n > 0 ? s1 / n : 0;
-  let s2 = 0;
-  for (let c = 0; c < inside.length; c++) if (inside[c]) { const d = scratch[c]! - mean; s2 += d * d; }
+  const dev = new Float64Array(1);
+  for (let a = 0; a < inside.length; a += BLOCK) cloudSquares(a, Math.min(inside.length, a + BLOCK), scratch, inside, mean, dev);
+  const s2 = dev[0]!;
   const std = n > 1 ? Math.sqrt(s2 / n) : 0;
   const scale = std > 0 ? sigmaS / std : 0;
   // exp(s - sigma_s^2/2) has mean 1 for Gaussian s: the renormalisation then only corrects sampling and gridding
@@ -40,4 +43,21 @@ export async function applyLognormalStructure(
   if (pool) await pool.runRanges('genLognormal', density.length, [density, scratch, inside, mean, scale, shift]);
   else applyLognormal(0, density.length, density, scratch, inside, mean, scale, shift);
   onStep();
+}
+
+/** Cells per call of the sum kernels: one loop's additions in the same order, in a function V8 optimises whole (a single long call would box its running doubles). */
+const BLOCK = 1 << 16;
+
+/** Adds the count and the sum of s over cloud cells [a, b) to run (count, sum). */
+function cloudSums(a: number, b: number, s: Float32Array, inside: Uint8Array, run: Float64Array): void {
+  let n = run[0]!, s1 = run[1]!;
+  for (let c = a; c < b; c++) if (inside[c]) { n++; s1 += s[c]!; }
+  run[0] = n; run[1] = s1;
+}
+
+/** Adds the squared deviations of s from mean over cloud cells [a, b) to run[0]. */
+function cloudSquares(a: number, b: number, s: Float32Array, inside: Uint8Array, mean: number, run: Float64Array): void {
+  let s2 = run[0]!;
+  for (let c = a; c < b; c++) if (inside[c]) { const d = s[c]! - mean; s2 += d * d; }
+  run[0] = s2;
 }
