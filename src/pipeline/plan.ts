@@ -14,7 +14,7 @@ import type { Cloud } from '../generate/cloud.js';
 import { generateCloud, estimateGenerateBytes } from '../generate/generate-cloud.js';
 import { defaultWorkerCount, runWhole, type WorkerPool } from '../grid/pool.js';
 import { closePlanPools, planPools, type PlanPools } from './plan-pools.js';
-import { isPowerOfTwo, volumeIntegral } from '../grid/grid3.js';
+import { isPowerOfTwo } from '../grid/grid3.js';
 import { InputError } from '../input-error.js';
 import { surveyCloud } from '../survey/survey-cloud.js';
 import { surveyOptionsFromConfig, hierarchySummary, treeJson, fragmentsCsv, runEnsemble, ensembleSummary, estimateSurveyBytes, startMergeTree, type PendingTree } from '../survey/index.js';
@@ -202,7 +202,7 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     const summaryWithTimes = (): Summary =>
       buildSummary({
         name: loaded.name, toolVersion: TOOL_VERSION, seed: config.seed, configSha256: loaded.sha256,
-        cloud: cloudBlock(cloud.summary), grid: gridBlock(cloud.grid, volumeIntegral(cloud.grid, cloud.density)),
+        cloud: cloudBlock(cloud.summary), grid: gridBlock(cloud.grid, cloud.summary.massOnGrid),
         resolution: resolutionSummary(bud, res), hierarchy: hierarchySummary(survey), cost: costSummary(bud),
         ...(ensemble ? { ensemble } : {}), warnings, timings,
       });
