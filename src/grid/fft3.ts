@@ -275,7 +275,7 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
         zb[k * P2 + 2 * q + 1] = ai + br;
       }
     }
-  transformBatch(ob, zb, nz, P, true);
+    transformBatch(ob, zb, nz, P, true);
     for (let q = 0; q < P; q++) {
       const fa = (start + 2 * (first + q)) * nz;
       const fb = fa + nz;
