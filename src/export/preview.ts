@@ -142,7 +142,7 @@ export async function writePreview(zipPath: string, parts: PreviewParts, force: 
     { name: 'fragments.csv', data: parts.fragmentsCsv },
     { name: 'plots.json', data: JSON.stringify(parts.plots) + '\n' },
   ];
-  const bytes = zipArchive(entries, ZIP_DATE, 6);
+  const bytes = await zipArchive(entries, ZIP_DATE, 6);
   return writeFileAtomic(zipPath, bytes, force);
 }
 
