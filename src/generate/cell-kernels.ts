@@ -8,7 +8,7 @@
 import type { Grid3 } from '../grid/grid3.js';
 import { cellCentre } from '../grid/grid3.js';
 import { envelopeDensity, type EnvelopeParams } from './envelope.js';
-import { eosTemperature, type Eos } from '../physics/eos.js';
+import { eosTemperatureFloat32, type Eos } from '../physics/eos.js';
 
 /**
  * Writes the envelope density (g/cm^3) at cell centres of x-rows [start, end): inside cells get
@@ -75,5 +75,6 @@ export function applyLognormal(start: number, end: number, density: Float32Array
 
 /** Writes cells [start, end) of temperature (K): the EOS temperature of the cloud gas inside, ambientT outside. */
 export function fillTemperature(start: number, end: number, temperature: Float32Array, density: Float32Array, inside: Uint8Array, eos: Eos, cloudT: number, ambientT: number): void {
-  for (let i = start; i < end; i++) temperature[i] = inside[i] ? eosTemperature(eos, cloudT, density[i]!) : ambientT;
+  // the Float32 of the EOS temperature (eosTemperatureFloat32: the same value as rounding eosTemperature)
+  for (let i = start; i < end; i++) temperature[i] = inside[i] ? eosTemperatureFloat32(eos, cloudT, density[i]!) : ambientT;
 }
