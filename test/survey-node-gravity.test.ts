@@ -33,10 +33,19 @@ describe('node cell lists', () => {
     const lists = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, density, shape);
     expect(tree.count).toBeGreaterThan(1);
     for (let t = 0; t < tree.count; t++) expect(lists.end[t]! - lists.start[t]!).toBe(tree.cells[t]);
-    for (let p = 0; p < lists.cells.length; p++) {
-      const c = lists.cells[p]!;
-      expect([lists.listed.i[p], lists.listed.j[p], lists.listed.k[p]]).toEqual([Math.floor(c / (n * n)), Math.floor(c / n) % n, c % n]);
-      expect(lists.listed.rho[p]).toBe(density[c]);
+    const { i, j, k, rho } = lists.listed;
+    for (let t = 0; t < tree.count; t++) {
+      // own cells (before the first child's range) in index order, each with its density and label
+      const kids = tree.children[t]!.map((c) => lists.start[c]!);
+      const ownEnd = Math.min(lists.end[t]!, ...kids);
+      let last = -1;
+      for (let p = lists.start[t]!; p < ownEnd; p++) {
+        const c = (i[p]! * n + j[p]!) * n + k[p]!;
+        expect(c).toBeGreaterThan(last);
+        last = c;
+        expect(rho[p]).toBe(density[c]);
+        expect(tree.labels[c]).toBe(t);
+      }
     }
     // a child's range sits inside its parent's; within a node's own cells the index order holds
     for (let t = 0; t < tree.count; t++) {
@@ -54,7 +63,11 @@ describe('node gravity', () => {
     const tree = buildMergeTree(density, shape, 1e-21, 6, { minCells: 8, minContrast: 0.2, minMass: 0 }, dx ** 3);
     const lists = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, density, shape);
     const got = await nodeGravity(tree, lists, dx, gravityCells, tol, null);
-    const cellsOf = (t: number) => lists.cells.subarray(lists.start[t], lists.end[t]);
+    const cellsOf = (t: number): Int32Array => {
+      const out = new Int32Array(lists.end[t]! - lists.start[t]!);
+      for (let p = lists.start[t]!, q = 0; p < lists.end[t]!; p++, q++) out[q] = (lists.listed.i[p]! * n + lists.listed.j[p]!) * n + lists.listed.k[p]!;
+      return out;
+    };
     const extent = (t: number) => {
       const c = coarseGrain(density, shape, dx, cellsOf(t), 1, 1); // factor 1: g is the next power of two of the extent
       return c.g;

@@ -3,19 +3,18 @@
  * each listed cell's grid indices and density, which the self-gravity deposits read.
  *
  * Grid: shape (nx, ny, nz), C order, flat index (i*ny + j)*nz + k; density g/cm^3.
- * Node t owns cells[start[t] .. end[t]). Nodes are ordered depth-first so each subtree is a
+ * Node t owns listed cells [start[t], end[t]). Nodes are ordered depth-first so each subtree is a
  * contiguous range; labelled cells are then counting-sorted by their node's position in one
  * pass over the grid in index order (so each node's cells are in index order), which also
  * writes their indices and densities: no second, scattered pass over the density.
  */
 import type { CellSet } from './self-gravity.js';
 
-/** Per-node cell lists and the listed cells (flat index, i, j, k, density). */
+/** Per-node cell lists: node t owns listed cells [start[t], end[t]) (grid indices i, j, k and density). */
 export interface NodeCells {
-  readonly cells: Int32Array;
   readonly start: Int32Array;
   readonly end: Int32Array;
-  /** Grid indices and densities (g/cm^3) of `cells`, in the same order. */
+  /** Grid indices and densities (g/cm^3) of the listed cells. */
   readonly listed: CellSet;
 }
 
@@ -54,7 +53,6 @@ export function nodeCellLists(
   for (let p = 0; p < count; p++) own[p + 1]! += own[p]!;
   const m = own[count]!;
   const ints = (): Int32Array => (shared ? new Int32Array(new SharedArrayBuffer(4 * m)) : new Int32Array(m));
-  const cells = ints();
   const listed: CellSet = { i: ints(), j: ints(), k: ints(), rho: shared ? new Float32Array(new SharedArrayBuffer(4 * m)) : new Float32Array(m) };
   const { i: I, j: J, k: K, rho } = listed;
   const fill = own.slice(0, count);
@@ -64,11 +62,11 @@ export function nodeCellLists(
         const id = labels[c]!;
         if (id < 0) continue;
         const q = fill[pos[id]!]!++;
-        cells[q] = c; I[q] = i; J[q] = j; K[q] = k; rho[q] = density[c]!;
+        I[q] = i; J[q] = j; K[q] = k; rho[q] = density[c]!;
       }
     }
   }
   const start = new Int32Array(count), end = new Int32Array(count);
   for (let t = 0; t < count; t++) { start[t] = own[pos[t]!]!; end[t] = own[last[t]! + 1]!; }
-  return { cells, start, end, listed };
+  return { start, end, listed };
 }
