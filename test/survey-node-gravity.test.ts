@@ -47,6 +47,12 @@ describe('node cell lists', () => {
         expect(tree.labels[c]).toBe(t);
       }
     }
+    // written into reused buffers holding garbage (the tree's sort scratch in a plan), the lists are the same
+    const garbage = [0, 1, 2, 3].map(() => { const b = new ArrayBuffer(4 * (i.length + 5)); new Uint8Array(b).fill(0xab); return b; });
+    const again = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, density, shape, false, garbage);
+    expect(again.listed).toEqual(lists.listed);
+    expect(again.listed.i.buffer).toBe(garbage[0]);
+    expect([again.start, again.end]).toEqual([lists.start, lists.end]);
     // a child's range sits inside its parent's; within a node's own cells the index order holds
     for (let t = 0; t < tree.count; t++) {
       const p = tree.parent[t]!;

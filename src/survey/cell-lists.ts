@@ -18,10 +18,14 @@ export interface NodeCells {
   readonly listed: CellSet;
 }
 
-/** Lists each node's cells from the labels (node id per cell, -1 none); arrays on shared memory when `shared`. */
+/**
+ * Lists each node's cells from the labels (node id per cell, -1 none); arrays on shared memory when
+ * `shared`. `reuse`: free buffers (e.g. the tree's sort scratch) the lists may be written into
+ * (each one large enough is used for one list; every entry is written), saving fresh memory.
+ */
 export function nodeCellLists(
   labels: Int32Array, parent: Int32Array, children: readonly number[][], roots: readonly number[],
-  density: Float32Array, shape: { nx: number; ny: number; nz: number }, shared = false,
+  density: Float32Array, shape: { nx: number; ny: number; nz: number }, shared = false, reuse: readonly ArrayBufferLike[] = [],
 ): NodeCells {
   const { nx, ny, nz } = shape;
   if (labels.length !== nx * ny * nz || density.length !== labels.length) throw new RangeError(`labels (${labels.length}) and density (${density.length}) must hold ${nx}x${ny}x${nz} cells`);
@@ -52,8 +56,10 @@ export function nodeCellLists(
   for (let c = 0; c < labels.length; c++) { const id = labels[c]!; if (id >= 0) own[pos[id]! + 1]!++; }
   for (let p = 0; p < count; p++) own[p + 1]! += own[p]!;
   const m = own[count]!;
-  const ints = (): Int32Array => (shared ? new Int32Array(new SharedArrayBuffer(4 * m)) : new Int32Array(m));
-  const listed: CellSet = { i: ints(), j: ints(), k: ints(), rho: shared ? new Float32Array(new SharedArrayBuffer(4 * m)) : new Float32Array(m) };
+  const spare = reuse.filter((b) => b.byteLength >= 4 * m && (!shared || b instanceof SharedArrayBuffer));
+  const buffer = (): ArrayBufferLike => spare.shift() ?? (shared ? new SharedArrayBuffer(4 * m) : new ArrayBuffer(4 * m));
+  const ints = (): Int32Array => new Int32Array(buffer(), 0, m);
+  const listed: CellSet = { i: ints(), j: ints(), k: ints(), rho: new Float32Array(buffer(), 0, m) };
   const { i: I, j: J, k: K, rho } = listed;
   const fill = own.slice(0, count);
   for (let i = 0, c = 0; i < nx; i++) {

@@ -65,17 +65,22 @@ export function sortCellsAbove(density: Float32Array, floor: number): Int32Array
   return sortCellsAboveWithKeys(density, floor).order;
 }
 
-/** sortCellsAbove, also returning the sorted densities' float bits (view them as a Float32Array). */
-function sortCellsAboveWithKeys(density: Float32Array, floor: number): { order: Int32Array; keys: Uint32Array } {
+/** Memory for a scratch array of `bytes` bytes (e.g. shared memory, to be reused once the tree is built). */
+export type ScratchAlloc = (bytes: number) => ArrayBufferLike;
+
+const plainAlloc: ScratchAlloc = (bytes) => new ArrayBuffer(bytes);
+
+/** sortCellsAbove, also returning the sorted densities' float bits (view them as a Float32Array); its four arrays come from alloc. */
+function sortCellsAboveWithKeys(density: Float32Array, floor: number, alloc: ScratchAlloc = plainAlloc): { order: Int32Array; keys: Uint32Array } {
   const bits = new Uint32Array(density.buffer, density.byteOffset, density.length);
   let m = 0;
   for (let c = 0; c < density.length; c++) if (density[c]! > floor) m++;
-  let idx = new Int32Array(m);
-  let key = new Uint32Array(m);
+  let idx = new Int32Array(alloc(4 * m), 0, m);
+  let key = new Uint32Array(alloc(4 * m), 0, m);
   for (let c = 0, p = 0; c < density.length; c++) if (density[c]! > floor) { idx[p] = c; key[p++] = bits[c]!; }
   // positive IEEE floats order like their bit patterns as unsigned integers
-  let idx2 = new Int32Array(m);
-  let key2 = new Uint32Array(m);
+  let idx2 = new Int32Array(alloc(4 * m), 0, m);
+  let key2 = new Uint32Array(alloc(4 * m), 0, m);
   const count = new Uint32Array(65536);
   for (const shift of [0, 16]) {
     count.fill(0);
@@ -107,7 +112,8 @@ class Growable {
 
 /**
  * Builds the merge tree of `density` (g/cm^3) over cells denser than `floor`; cellVolume in cm^3 turns
- * density into mass. `labelsOut` (optional, one Int32 per cell, e.g. on shared memory) receives the labels.
+ * density into mass. `labelsOut` (optional, one Int32 per cell, e.g. on shared memory) receives the labels;
+ * `alloc` (optional) provides the sort's four scratch arrays (4 bytes per cell above the floor each).
  */
 export function buildMergeTree(
   density: Float32Array,
@@ -118,11 +124,12 @@ export function buildMergeTree(
   cellVolume: number,
   onProgress?: (done: number, total: number) => void,
   labelsOut?: Int32Array,
+  alloc?: ScratchAlloc,
 ): MergeTree {
   const { nx, ny, nz } = shape;
   const n = nx * ny * nz;
   if (density.length !== n) throw new RangeError(`density has ${density.length} values, shape holds ${n}`);
-  const { order, keys } = sortCellsAboveWithKeys(density, floor);
+  const { order, keys } = sortCellsAboveWithKeys(density, floor, alloc);
   const sorted = new Float32Array(keys.buffer, keys.byteOffset, keys.length); // density[order[p]], read in sequence
   const m = order.length;
 

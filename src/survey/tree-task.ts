@@ -57,11 +57,14 @@ export function mergeTreeTask(
   density: Float32Array, shape: { nx: number; ny: number; nz: number }, floor: number, connectivity: 6 | 26,
   limits: TreeLimits, vol: number, labels: Int32Array, counter: Int32Array,
 ): { tree: MergeTree; lists: NodeCells | null } {
+  // the sort's scratch arrays on shared memory: free once the tree is built, they then hold the cell lists
+  const scratch: SharedArrayBuffer[] = [];
+  const alloc = (bytes: number): SharedArrayBuffer => { const b = new SharedArrayBuffer(bytes); scratch.push(b); return b; };
   const tree = buildMergeTree(density, shape, floor, connectivity, limits, vol, (done, total) => {
     Atomics.store(counter, 1, total);
     Atomics.store(counter, 0, done);
-  }, labels);
-  const lists = tree.count > 0 ? nodeCellLists(labels, tree.parent, tree.children, tree.roots, density, shape, true) : null;
+  }, labels, alloc);
+  const lists = tree.count > 0 ? nodeCellLists(labels, tree.parent, tree.children, tree.roots, density, shape, true, scratch) : null;
   return { tree, lists };
 }
 
