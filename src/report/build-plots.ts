@@ -29,22 +29,28 @@ export const SPECTRUM_MAX_CELLS = 128;
  */
 export function blockMeanPlanes(start: number, end: number, field: Float32Array, n: number, factor: number, out: Float32Array): void {
   const m = n / factor;
-  const plane = m * m;
-  const sums = new Float64Array(plane);
-  const coarseK = new Int32Array(n);
-  for (let k = 0; k < n; k++) coarseK[k] = Math.floor(k / factor);
   const w = 1 / factor ** 3;
   for (let ci = start; ci < end; ci++) {
-    sums.fill(0);
-    for (let i = ci * factor; i < (ci + 1) * factor; i++) {
-      for (let j = 0; j < n; j++) {
-        const bj = Math.floor(j / factor) * m;
-        const row = (i * n + j) * n;
-        for (let k = 0; k < n; k++) sums[bj + coarseK[k]!]! += field[row + k]!;
+    for (let cj = 0; cj < m; cj++) blockMeanRow(field, n, factor, ci, cj, m, out, (ci * m + cj) * m, w);
+  }
+}
+
+/**
+ * Coarse row (ci, cj) of the block mean: each coarse cell sums its fine cells in cell order (i, then
+ * j, then k) in a Float64 register, the order in which a plane-by-plane sweep would add them.
+ */
+function blockMeanRow(field: Float32Array, n: number, factor: number, ci: number, cj: number, m: number, out: Float32Array, at: number, w: number): void {
+  const i0 = ci * factor, j0 = cj * factor;
+  for (let ck = 0; ck < m; ck++) {
+    let s = 0;
+    const k0 = ck * factor;
+    for (let di = 0; di < factor; di++) {
+      for (let dj = 0; dj < factor; dj++) {
+        const row = ((i0 + di) * n + j0 + dj) * n + k0;
+        for (let dk = 0; dk < factor; dk++) s += field[row + dk]!;
       }
     }
-    const o = ci * plane;
-    for (let c = 0; c < plane; c++) out[o + c] = sums[c]! * w;
+    out[at + ck] = s * w;
   }
 }
 
