@@ -57,30 +57,36 @@ export interface PreviewBlocks {
 /** PreviewBlocks of an n^3 grid on c^3 blocks (c divides n): density in g/cm^3, Jeans numbers dimensionless. */
 export function previewBlocks(n: number, c: number, density: Float32Array, jeans: Float32Array): PreviewBlocks {
   const b = n / c;
-  const d = new Float64Array(c * c * c);
-  const j = new Float32Array(c * c * c).fill(-Infinity);
-  const densest = new Float64Array(c * c * c).fill(-1);
-  const peak = new Float32Array(c * c * c).fill(-Infinity);
-  for (let i = 0; i < n; i++) {
-    const bi = (i / b) | 0;
-    for (let jj = 0; jj < n; jj++) {
-      const bj = (jj / b) | 0;
-      const row = (i * n + jj) * n;
-      const brow = (bi * c + bj) * c;
-      for (let k = 0; k < n; k++) {
-        const q = brow + ((k / b) | 0);
-        const v = density[row + k]!;
-        d[q] += v;
-        const jn = jeans[row + k]!;
-        if (jn > j[q]!) j[q] = jn;
-        if (v > peak[q]!) { peak[q] = v; densest[q] = row + k; }
+  const out: PreviewBlocks = { cells: c, density: new Float32Array(c * c * c), jeans: new Float32Array(c * c * c), densest: new Float64Array(c * c * c) };
+  const inv = 1 / (b * b * b);
+  for (let bi = 0; bi < c; bi++) for (let bj = 0; bj < c; bj++) previewRow(n, c, b, bi, bj, density, jeans, inv, out);
+  return out;
+}
+
+/**
+ * Blocks (bi, bj, 0..c-1) of previewBlocks: each block's cells visited in cell order (i, then j, then
+ * k), as a plane-by-plane sweep would, with its sum in a Float64 register.
+ */
+function previewRow(n: number, c: number, b: number, bi: number, bj: number, density: Float32Array, jeans: Float32Array, inv: number, out: PreviewBlocks): void {
+  for (let bk = 0; bk < c; bk++) {
+    let sum = 0, jmax = -Infinity, peak = -Infinity, at = -1;
+    for (let di = 0; di < b; di++) {
+      for (let dj = 0; dj < b; dj++) {
+        const row = ((bi * b + di) * n + bj * b + dj) * n + bk * b;
+        for (let dk = 0; dk < b; dk++) {
+          const v = density[row + dk]!;
+          sum += v;
+          const jn = jeans[row + dk]!;
+          if (jn > jmax) jmax = jn;
+          if (v > peak) { peak = v; at = row + dk; }
+        }
       }
     }
+    const q = (bi * c + bj) * c + bk;
+    out.density[q] = sum * inv;
+    out.jeans[q] = jmax;
+    out.densest[q] = at;
   }
-  const inv = 1 / (b * b * b);
-  const df = new Float32Array(c * c * c);
-  for (let q = 0; q < df.length; q++) df[q] = d[q]! * inv;
-  return { cells: c, density: df, jeans: j, densest };
 }
 
 /** Label (tree node id, -1 none) of each block's densest cell. */
