@@ -53,6 +53,12 @@ describe('node cell lists', () => {
     expect(again.listed).toEqual(lists.listed);
     expect(again.listed.i.buffer).toBe(garbage[0]);
     expect([again.start, again.end]).toEqual([lists.start, lists.end]);
+    // own counts from the tree's subtree counts give the same lists; wrong counts are caught and recounted
+    const fromTree = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, density, shape, false, [], tree.cells);
+    expect([fromTree.start, fromTree.end, fromTree.listed]).toEqual([lists.start, lists.end, lists.listed]);
+    const wrong = Float64Array.from(tree.cells, (c, t) => (t === 0 ? c + 3 : c));
+    const recounted = nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, density, shape, false, [], wrong);
+    expect([recounted.start, recounted.end, recounted.listed]).toEqual([lists.start, lists.end, lists.listed]);
     // a child's range sits inside its parent's; within a node's own cells the index order holds
     for (let t = 0; t < tree.count; t++) {
       const p = tree.parent[t]!;

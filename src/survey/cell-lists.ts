@@ -22,10 +22,14 @@ export interface NodeCells {
  * Lists each node's cells from the labels (node id per cell, -1 none); arrays on shared memory when
  * `shared`. `reuse`: free buffers (e.g. the tree's sort scratch) the lists may be written into
  * (each one large enough is used for one list; every entry is written), saving fresh memory.
+ * `subtreeCells` (the tree's cell count per node, descendants included): each node's own count is
+ * then its count minus its children's, instead of a counting pass over the labels; the lists are
+ * checked to have filled exactly those counts, else counted again from the labels.
  */
 export function nodeCellLists(
   labels: Int32Array, parent: Int32Array, children: readonly number[][], roots: readonly number[],
   density: Float32Array, shape: { nx: number; ny: number; nz: number }, shared = false, reuse: readonly ArrayBufferLike[] = [],
+  subtreeCells?: ArrayLike<number>,
 ): NodeCells {
   const { nx, ny, nz } = shape;
   if (labels.length !== nx * ny * nz || density.length !== labels.length) throw new RangeError(`labels (${labels.length}) and density (${density.length}) must hold ${nx}x${ny}x${nz} cells`);
@@ -53,7 +57,15 @@ export function nodeCellLists(
     }
   }
   const own = new Int32Array(count + 1);
-  for (let c = 0; c < labels.length; c++) { const id = labels[c]!; if (id >= 0) own[pos[id]! + 1]!++; }
+  if (subtreeCells) {
+    for (let t = 0; t < count; t++) {
+      let c = subtreeCells[t]!;
+      for (const k of children[t]!) c -= subtreeCells[k]!;
+      own[pos[t]! + 1] = c;
+    }
+  } else {
+    for (let c = 0; c < labels.length; c++) { const id = labels[c]!; if (id >= 0) own[pos[id]! + 1]!++; }
+  }
   for (let p = 0; p < count; p++) own[p + 1]! += own[p]!;
   const m = own[count]!;
   const spare = reuse.filter((b) => b.byteLength >= 4 * m && (!shared || b instanceof SharedArrayBuffer));
@@ -72,6 +84,8 @@ export function nodeCellLists(
       }
     }
   }
+  // counts taken from the tree: every node must have filled exactly its range
+  if (subtreeCells) for (let p = 0; p < count; p++) if (fill[p] !== own[p + 1]) return nodeCellLists(labels, parent, children, roots, density, shape, shared, reuse);
   const start = new Int32Array(count), end = new Int32Array(count);
   for (let t = 0; t < count; t++) { start[t] = own[pos[t]!]!; end[t] = own[last[t]! + 1]!; }
   return { start, end, listed };

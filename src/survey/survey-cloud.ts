@@ -77,7 +77,7 @@ export async function surveyCloud(input: SurveyInput, options: SurveyOptions, pr
   let gravity: NodeGravity = { energy: new Float64Array(0), factor: new Int32Array(0), cellsPerSide: new Int32Array(0), relativeError: new Float64Array(0) };
   if (tree.count > 0) {
     // the tree's worker (when it had one) listed each node's cells already
-    const lists = built.lists ?? nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, input.density, g);
+    const lists = built.lists ?? nodeCellLists(tree.labels, tree.parent, tree.children, tree.roots, input.density, g, false, [], tree.cells);
     const sg = progress.stage('survey: self-gravity', tree.count);
     gravity = await nodeGravity(tree, lists, dx, options.gravityCells, tolerance, pool, (d) => sg.update(d));
     sg.stop();

@@ -64,7 +64,7 @@ export function mergeTreeTask(
     Atomics.store(counter, 1, total);
     Atomics.store(counter, 0, done);
   }, labels, alloc);
-  const lists = tree.count > 0 ? nodeCellLists(labels, tree.parent, tree.children, tree.roots, density, shape, true, scratch) : null;
+  const lists = tree.count > 0 ? nodeCellLists(labels, tree.parent, tree.children, tree.roots, density, shape, true, scratch, tree.cells) : null;
   return { tree, lists };
 }
 
