@@ -2,6 +2,7 @@
 // (Truelove et al. 1997), computed here from constants typed in the test (CODATA 2018, m_H common practice).
 import { describe, it, expect } from 'vitest';
 import { gridResolution } from '../src/budget/grid-resolution.js';
+import { jeansHistogram } from '../src/report/grid-histograms.js';
 
 const G = 6.6743e-8;
 const KB = 1.380649e-16;
@@ -82,5 +83,19 @@ describe('gridResolution', () => {
 
   it('rejects a density of the wrong length', () => {
     expect(() => gridResolution({ nx: 2, ny: 2, nz: 2, boxSize: 1 }, new Float32Array(7), 10, 2.33, ISO, 4)).toThrow(RangeError);
+  });
+});
+
+describe('gridResolution: recorded Jeans-number range', () => {
+  it('is the smallest and largest stored J over 0 < J < Infinity, and the histogram from it equals the one from a range pass', () => {
+    const n = 16;
+    const g = { nx: n, ny: n, nz: n, boxSize: 3e18 };
+    const density = new Float32Array(n ** 3).map((_, i) => (i % 97 === 0 ? 0 : 1e-20 * (1 + ((i * 7919) % 1000))));
+    const temperature = new Float32Array(n ** 3).map((_, i) => (i % 89 === 0 ? 0 : 10 + (i % 13)));
+    const res = gridResolution(g, density, temperature, 2.33, { kind: 'isothermal' }, 4);
+    let lo = Infinity, hi = -Infinity;
+    for (const v of res.jeansNumber) if (v > 0 && v !== Infinity) { lo = Math.min(lo, v); hi = Math.max(hi, v); }
+    expect(res.jeansNumberRange).toEqual([lo, hi]);
+    expect(jeansHistogram(res, 4)).toEqual(jeansHistogram({ jeansNumber: res.jeansNumber }, 4));
   });
 });

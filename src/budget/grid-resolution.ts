@@ -30,8 +30,9 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
   // a scalar is the base temperature T0 and follows the EOS here.
   const baro = eos.kind === 'barotropic' && field === null;
   const jUniform = field === null && !baro ? j1 / Math.sqrt(scalarT) : 0;
-  // running values: last rho, last T0, last J, max J, mass, unresolved mass, count (see jeansRows)
-  const run = Float64Array.of(Number.NaN, Number.NaN, 0, 0, 0, 0, 0);
+  // running values: last rho, last T0, last J, max J, mass, unresolved mass, count, smallest and
+  // largest stored finite J > 0 (see jeansRows)
+  const run = Float64Array.of(Number.NaN, Number.NaN, 0, 0, 0, 0, 0, Infinity, -Infinity);
   const { nz } = grid;
   for (let c = 0; c < n; c += ROW_BLOCK * nz) jeansRows(c, Math.min(n, c + ROW_BLOCK * nz), density, field, scalarT, baro ? eos : null, jUniform, j1, limit, jmap, run);
   const maxJ = run[3]!, mass = run[4]!, unresolvedMass = run[5]!, count = run[6]!;
@@ -40,6 +41,7 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
     jeansCellsMin: maxJ > 0 ? 1 / maxJ : Infinity,
     unresolvedMassFraction: mass > 0 ? unresolvedMass / mass : 0,
     cellsNeedingRefinement: count,
+    jeansNumberRange: run[8]! >= run[7]! ? [run[7]!, run[8]!] : null,
   };
 }
 
@@ -52,13 +54,14 @@ const ROW_BLOCK = 16;
 /** +Infinity and +0 read as float64 values (literals in the loop make V8 box each J). */
 const FLOAT_CONSTANTS = Float64Array.of(Infinity, 0);
 
-/** J of cells [a, b) into jmap (see gridResolution); run: last rho, last T0, last J, max J, mass, unresolved mass, count, updated. */
+/** J of cells [a, b) into jmap (see gridResolution); run: last rho, last T0, last J, max J, mass, unresolved mass, count, smallest and largest stored finite J > 0, updated. */
 function jeansRows(
   a: number, b: number, density: Float32Array, field: Float32Array | null, scalarT: number, eos: Eos | null,
   jUniform: number, j1: number, limit: number, jmap: Float32Array, run: Float64Array,
 ): void {
   const inf = FLOAT_CONSTANTS[0]!, zero = FLOAT_CONSTANTS[1]!;
   let lastRho = run[0]!, lastT = run[1]!, lastJ = run[2]!, maxJ = run[3]!, mass = run[4]!, unresolvedMass = run[5]!, count = run[6]!;
+  let lo = run[7]!, hi = run[8]!;
   for (let i = a; i < b; i++) {
     const rho = density[i]!;
     let j: number;
@@ -75,6 +78,9 @@ function jeansRows(
       }
     }
     jmap[i] = j;
+    // the stored (Float32) value's range over 0 < J < Infinity, as the Jeans histogram takes it
+    const v = Math.fround(j);
+    if (v > 0 && v !== inf) { if (v < lo) lo = v; if (v > hi) hi = v; }
     if (rho > 0) mass += rho;
     if (j > maxJ) maxJ = j;
     if (j > limit) {
@@ -83,4 +89,5 @@ function jeansRows(
     }
   }
   run[0] = lastRho; run[1] = lastT; run[2] = lastJ; run[3] = maxJ; run[4] = mass; run[5] = unresolvedMass; run[6] = count;
+  run[7] = lo; run[8] = hi;
 }

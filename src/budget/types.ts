@@ -175,4 +175,6 @@ export interface GridResolution {
   unresolvedMassFraction: number;
   /** Number of cells with J > 1/N_J (would need refinement at t = 0). */
   cellsNeedingRefinement: number;
+  /** Smallest and largest stored J over the cells with 0 < J < Infinity, or null when there are none (absent: not recorded). */
+  jeansNumberRange?: readonly [number, number] | null;
 }

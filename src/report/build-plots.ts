@@ -122,7 +122,7 @@ export async function buildGridPlots(cloud: Cloud | null, gridResolution: GridRe
   const pdf = runWhole(pool, 'reportDensityPdf', densityPdf, [density, mask, sigma]);
   const spectrum = cloud ? velocitySpectrum(cloud, pool) : Promise.resolve(null);
   const res = await gridResolution;
-  const jeans = runWhole(pool, 'reportJeansHistogram', jeansNumberHistogram, [res.jeansNumber, cellsPerJeansLength]);
+  const jeans = runWhole(pool, 'reportJeansHistogram', jeansNumberHistogram, [res.jeansNumber, cellsPerJeansLength, res.jeansNumberRange], [res.jeansNumber]);
   const [density_pdf, velocity_spectrum, jeans_histogram] = await Promise.all([pdf, spectrum, jeans]);
   return { density_pdf, velocity_spectrum, jeans_histogram };
 }

@@ -98,11 +98,15 @@ function jeansBins(a: number, b: number, j: Float32Array, l0: number, inv: numbe
   run[0] = lastV; run[1] = lastB;
 }
 
-/** Histogram of log10 J over the cells with 0 < J < Infinity, with the 1/N_J limit. */
-export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNumber'>, cellsPerJeansLength: number): JeansHistogramPlot | null {
+/** Histogram of log10 J over the cells with 0 < J < Infinity, with the 1/N_J limit (the range pass is skipped when g records jeansNumberRange). */
+export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNumber' | 'jeansNumberRange'>, cellsPerJeansLength: number): JeansHistogramPlot | null {
   const j = g.jeansNumber;
   const range = Float64Array.of(INFINITIES[0]!, INFINITIES[1]!);
-  for (let a = 0; a < j.length; a += BLOCK) jeansRange(a, Math.min(j.length, a + BLOCK), j, range);
+  if (g.jeansNumberRange !== undefined) {
+    if (g.jeansNumberRange !== null) { range[0] = g.jeansNumberRange[0]; range[1] = g.jeansNumberRange[1]; }
+  } else {
+    for (let a = 0; a < j.length; a += BLOCK) jeansRange(a, Math.min(j.length, a + BLOCK), j, range);
+  }
   const lo = range[0]!, hi = range[1]!;
   if (!(hi >= lo)) return null;
   let l0 = Math.log10(lo), l1 = Math.log10(hi);
@@ -120,7 +124,7 @@ export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNu
   };
 }
 
-/** jeansHistogram of a bare Jeans-number map (the worker task's form). */
-export function jeansNumberHistogram(jeansNumber: Float32Array, cellsPerJeansLength: number): JeansHistogramPlot | null {
-  return jeansHistogram({ jeansNumber }, cellsPerJeansLength);
+/** jeansHistogram of a bare Jeans-number map, with its recorded range when known (the worker task's form). */
+export function jeansNumberHistogram(jeansNumber: Float32Array, cellsPerJeansLength: number, range?: readonly [number, number] | null): JeansHistogramPlot | null {
+  return jeansHistogram(range === undefined ? { jeansNumber } : { jeansNumber, jeansNumberRange: range }, cellsPerJeansLength);
 }
