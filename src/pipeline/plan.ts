@@ -216,13 +216,16 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       writeFileAtomic(path.join(runDir, name), data, opts.force);
       files.push(name);
     };
-    put('tree.json', jsonText(tree));
-    put('fragments.csv', csv);
-    put('report.html', renderReport(stable as Summary, plots, loaded.text));
-    await writePreview(path.join(runDir, 'preview.zip'), {
+    // preview.zip first: its entries deflate on Node's thread pool while this thread writes the rest
+    const previewP = writePreview(path.join(runDir, 'preview.zip'), {
       cloud, jeansNumber: res.jeansNumber, labels: survey.labels, summary: stable, tree, fragmentsCsv: csv, plots,
       particles: null, previewCells, toolVersion: TOOL_VERSION, blocks,
     }, opts.force);
+    previewP.catch(() => {}); // awaited below
+    put('tree.json', jsonText(tree));
+    put('fragments.csv', csv);
+    put('report.html', renderReport(stable as Summary, plots, loaded.text));
+    await previewP;
     files.push('preview.zip');
     timings.write = (performance.now() - t) / 1000;
     const summary = summaryWithTimes();
