@@ -37,6 +37,8 @@ export interface PreviewParts {
   toolVersion: string;
   /** previewBlocks of the cloud's density and jeansNumber at previewSize(n, previewCells), when made already (e.g. on a worker). */
   blocks?: PreviewBlocks;
+  /** The tree as JSON text (JSON.stringify(tree, null, 2) + newline), when written already. */
+  treeText?: string;
 }
 
 /** The largest divisor of n that is at most want (at least 1). */
@@ -144,7 +146,7 @@ export async function writePreview(zipPath: string, parts: PreviewParts, force: 
     { name: 'labels.i32', data: littleEndianBytes(ds.labels) },
     ...(particles ? [{ name: 'particles.f32', data: littleEndianBytes(particles) }] : []),
     { name: 'summary.json', data: JSON.stringify(parts.summary, null, 2) + '\n' },
-    { name: 'tree.json', data: JSON.stringify(parts.tree, null, 2) + '\n' },
+    { name: 'tree.json', data: parts.treeText ?? JSON.stringify(parts.tree, null, 2) + '\n' },
     { name: 'fragments.csv', data: parts.fragmentsCsv },
     { name: 'plots.json', data: JSON.stringify(parts.plots) + '\n' },
   ];

@@ -217,12 +217,13 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       files.push(name);
     };
     // preview.zip first: its entries deflate on Node's thread pool while this thread writes the rest
+    const treeText = jsonText(tree);
     const previewP = writePreview(path.join(runDir, 'preview.zip'), {
       cloud, jeansNumber: res.jeansNumber, labels: survey.labels, summary: stable, tree, fragmentsCsv: csv, plots,
-      particles: null, previewCells, toolVersion: TOOL_VERSION, blocks,
+      particles: null, previewCells, toolVersion: TOOL_VERSION, blocks, treeText,
     }, opts.force);
     previewP.catch(() => {}); // awaited below
-    put('tree.json', jsonText(tree));
+    put('tree.json', treeText);
     put('fragments.csv', csv);
     put('report.html', renderReport(stable as Summary, plots, loaded.text));
     await previewP;
