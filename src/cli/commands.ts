@@ -11,6 +11,7 @@ import { loadConfig } from '../config/load.js';
 import { parseQuantity, UnitError, type DimensionName } from '../physics/units.js';
 import { TOOL_VERSION } from '../version.js';
 import type { PlanPools } from '../pipeline/plan-pools.js';
+import type { Summary } from '../report/summary-types.js';
 
 /** Threads the entry started for `plan` before this module loaded (see src/cli.ts), or null. */
 let earlyPools: PlanPools | null = null;
@@ -52,6 +53,14 @@ function printJson(value: unknown): void {
   print(JSON.stringify(value, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
 }
 
+/** Prints a plan's or survey's result: summary.json with --json, else the terminal summary and (unless quiet) the files written. */
+async function printRun(r: { summary: Summary; runDir: string; files: string[] }, opts: { json?: boolean; quiet?: boolean }): Promise<void> {
+  if (opts.json) return printJson(r.summary);
+  const { terminalSummary } = await import('../report/terminal-summary.js');
+  print(terminalSummary(r.summary));
+  if (!opts.quiet) process.stderr.write(`wrote ${r.runDir}/ (${r.files.join(', ')})\n`);
+}
+
 interface CommonOpts { out?: string; cells?: number; seed?: number; json?: boolean; force?: boolean; quiet?: boolean }
 
 const program = new Command();
@@ -91,10 +100,7 @@ program
     }
     const { runPlan } = await import('../pipeline/plan.js');
     const r = await runPlan(loaded, { ...opts, force: !!opts.force, progress: terminalProgress(!!opts.quiet || !!opts.json), pools });
-    if (opts.json) return printJson(r.summary);
-    const { terminalSummary } = await import('../report/terminal-summary.js');
-    print(terminalSummary(r.summary));
-    if (!opts.quiet) process.stderr.write(`wrote ${r.runDir}/ (${r.files.join(', ')})\n`);
+    await printRun(r, opts);
   }));
 
 program
@@ -139,10 +145,7 @@ program
       densityUnit: String(opts.densityUnit), configFile: opts.config as string | undefined,
       out: opts.out, force: !!opts.force, progress: terminalProgress(!!opts.quiet || !!opts.json),
     });
-    if (opts.json) return printJson(r.summary);
-    const { terminalSummary } = await import('../report/terminal-summary.js');
-    print(terminalSummary(r.summary));
-    if (!opts.quiet) process.stderr.write(`wrote ${r.runDir}/ (${r.files.join(', ')})\n`);
+    await printRun(r, opts);
   }));
 
 program
