@@ -3,7 +3,8 @@
  * Each task takes (start, end, ...args) or plain args and writes into shared typed arrays.
  * Add a task by importing its function and listing it in TASKS.
  */
-import { parentPort } from 'node:worker_threads';
+import { parentPort, workerData } from 'node:worker_threads';
+import { warmUp, type WarmUp } from './worker-warm-up.js';
 import { forwardZ, complexAxis, inverseZ } from './grid/fft3.js';
 import type { Grid3 } from './grid/grid3.js';
 import { GENERATE_TASKS } from './generate/worker-tasks.js';
@@ -21,6 +22,9 @@ const TASKS: Record<string, Task> = {
   ...SURVEY_TASKS,
   ...REPORT_TASKS,
 };
+
+// a plan's threads first warm up the functions they will run (src/worker-warm-up.ts); messages wait meanwhile
+warmUp((workerData as { warmUp?: WarmUp } | null)?.warmUp);
 
 parentPort?.on('message', (job: { id: number; task: string; args: unknown[] }) => {
   const fn = TASKS[job.task];

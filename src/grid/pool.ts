@@ -9,6 +9,7 @@
 import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
+import type { WarmUp } from '../worker-warm-up.js';
 
 /** A message to a worker: task name and its arguments (typed arrays on shared memory are shared). */
 interface Job { id: number; task: string; args: unknown[] }
@@ -66,8 +67,8 @@ export function splitRange(total: number, n: number): Array<[number, number]> {
   return out;
 }
 
-/** Starts a pool of `size` worker threads. */
-export function createPool(size: number = defaultWorkerCount()): WorkerPool {
+/** Starts a pool of `size` worker threads; `warmUp`: what each thread first runs on made-up data (src/worker-warm-up.ts). */
+export function createPool(size: number = defaultWorkerCount(), warmUp?: WarmUp): WorkerPool {
   const script = workerScript();
   const workers: Worker[] = [];
   const idle: Worker[] = [];
@@ -86,7 +87,7 @@ export function createPool(size: number = defaultWorkerCount()): WorkerPool {
   };
 
   for (let i = 0; i < size; i++) {
-    const w = new Worker(script);
+    const w = new Worker(script, { workerData: { warmUp } });
     w.on('message', (r: Reply) => {
       const p = pending.get(r.id);
       if (!p) return;

@@ -15,7 +15,7 @@ export interface PlanPools {
 /** Starts the pool (and the lane) for `workers` threads; none for one thread. */
 export function startPlanPools(workers: number): PlanPools {
   if (workers <= 1) return { workers: 1, pool: null, lane: null };
-  return { workers, pool: createPool(workers), lane: createPool(1) };
+  return { workers, pool: createPool(workers, 'transforms'), lane: createPool(1) };
 }
 
 /** Stops every thread of the pools. */
