@@ -137,11 +137,11 @@ function constantLineTransform(p: FFT, n: number, inverse: boolean, re: number, 
 export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: boolean, start = 0, end = -1, band = Infinity): void {
   const { nx, ny } = g;
   // kz columns held (all nz/2 + 1, or fewer in a band spectrum)
-  const nh = spectrumColumns(spec, g);
-  assertColumns(g, nh, band);
-  if (end < 0) end = axisLineCount(g, axis, nh);
+  const nc = spectrumColumns(spec, g);
+  assertColumns(g, nc, band);
+  if (end < 0) end = axisLineCount(g, axis, nc);
   const n = axis === 0 ? nx : ny;
-  const stride = axis === 0 ? ny * nh * 2 : nh * 2;
+  const stride = axis === 0 ? ny * nc * 2 : nc * 2;
   const p = plan(n);
   // a block's lines sit side by side in the spectrum (consecutive kz): element a of line b at
   // base + a*stride + 2b, which is transformBatch's interleaved layout row by row
@@ -158,10 +158,10 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
   let line = start;
   while (line < end) {
     // line enumerates (j, kz) for axis 0 and (i, kz) for axis 1; a block shares j (or i)
-    const outer = Math.floor(line / nh);
-    const kz0 = line - outer * nh;
-    const count = Math.min(BLOCK, end - line, nh - kz0);
-    const base = axis === 0 ? (outer * nh + kz0) * 2 : (outer * ny * nh + kz0) * 2;
+    const outer = Math.floor(line / nc);
+    const kz0 = line - outer * nc;
+    const count = Math.min(BLOCK, end - line, nc - kz0);
+    const base = axis === 0 ? (outer * nc + kz0) * 2 : (outer * ny * nc + kz0) * 2;
     // lines kz >= firstKnown of this block have a known input (count: none)
     let firstKnown = count;
     let known: Float64Array | null = null;
