@@ -7,6 +7,7 @@
  * One pass, no allocation per cell; sums in Float64.
  */
 import { cellCount, cellSize, type Grid3 } from '../grid/grid3.js';
+import { forCellBlocks } from '../grid/cell-blocks.js';
 import { eosTemperatureFactor, type Eos } from '../physics/eos.js';
 import { jeansNumber } from '../physics/resolution.js';
 import { soundSpeed } from '../physics/sound-speed.js';
@@ -33,8 +34,7 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
   // running values: last rho, last T0, last J, max J, mass, unresolved mass, count, smallest and
   // largest stored finite J > 0 (see jeansRows)
   const run = Float64Array.of(Number.NaN, Number.NaN, 0, 0, 0, 0, 0, Infinity, -Infinity);
-  const { nz } = grid;
-  for (let c = 0; c < n; c += ROW_BLOCK * nz) jeansRows(c, Math.min(n, c + ROW_BLOCK * nz), density, field, scalarT, baro ? eos : null, jUniform, j1, limit, jmap, run);
+  forCellBlocks(n, (a, b) => jeansRows(a, b, density, field, scalarT, baro ? eos : null, jUniform, j1, limit, jmap, run));
   const maxJ = run[3]!, mass = run[4]!, unresolvedMass = run[5]!, count = run[6]!;
   return {
     jeansNumber: jmap,
@@ -45,16 +45,10 @@ export function gridResolution(grid: Grid3, density: Float32Array, temperature: 
   };
 }
 
-/**
- * x-rows per call of jeansRows. The per-cell loop lives in a function called many times, so V8
- * optimises it as a whole function (a single long call runs as on-stack-replaced code, which
- * boxes every double it carries); the running values go through a Float64Array between calls.
- */
-const ROW_BLOCK = 16;
 /** +Infinity and +0 read as float64 values (literals in the loop make V8 box each J). */
 const FLOAT_CONSTANTS = Float64Array.of(Infinity, 0);
 
-/** J of cells [a, b) into jmap (see gridResolution); run: last rho, last T0, last J, max J, mass, unresolved mass, count, smallest and largest stored finite J > 0, updated. */
+/** J of cells [a, b) into jmap (see gridResolution; a block kernel: src/grid/cell-blocks.ts); run: last rho, last T0, last J, max J, mass, unresolved mass, count, smallest and largest stored finite J > 0, updated. */
 function jeansRows(
   a: number, b: number, density: Float32Array, field: Float32Array | null, scalarT: number, eos: Eos | null,
   jUniform: number, j1: number, limit: number, jmap: Float32Array, run: Float64Array,

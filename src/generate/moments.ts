@@ -7,6 +7,7 @@
  */
 import type { Grid3 } from '../grid/grid3.js';
 import { cellCentre, cellVolume } from '../grid/grid3.js';
+import { forCellBlocks } from '../grid/cell-blocks.js';
 
 /** Cell-centre coordinates along one axis, cm. */
 export function axisCentres(n: number, boxSize: number): Float64Array {
@@ -19,7 +20,7 @@ export function axisCentres(n: number, boxSize: number): Float64Array {
 export function cloudMassCentre(g: Grid3, density: Float32Array, inside: Uint8Array): { mass: number; centre: [number, number, number] } {
   const { nx, ny, nz, boxSize: L } = g;
   const xs = axisCentres(nx, L), ys = axisCentres(ny, L), zs = axisCentres(nz, L);
-  // running sums m, m x, m y, m z, added plane by plane (see KERNELS)
+  // running sums m, m x, m y, m z, added plane by plane (a block kernel per plane: src/grid/cell-blocks.ts)
   const run = new Float64Array(4);
   for (let i = 0; i < nx; i++) centrePlane(i, ny, nz, xs[i]!, ys, zs, density, inside, run);
   const m = run[0]!, mx = run[1]!, my = run[2]!, mz = run[3]!;
@@ -27,12 +28,7 @@ export function cloudMassCentre(g: Grid3, density: Float32Array, inside: Uint8Ar
   return { mass: m * dv, centre: m > 0 ? [mx / m, my / m, mz / m] : [0, 0, 0] };
 }
 
-/**
- * KERNELS: the whole-grid sums run through small functions called once per plane or block,
- * their running sums in a Float64Array: the same additions in the same order as one loop, but V8
- * optimises a function called many times as a whole, while one long call runs as
- * on-stack-replaced code that boxes every double it carries from one iteration to the next.
- */
+/** Adds plane i's cloud cells to run (m, m x, m y, m z), in cell order (a block kernel: src/grid/cell-blocks.ts). */
 function centrePlane(i: number, ny: number, nz: number, x: number, ys: Float64Array, zs: Float64Array, density: Float32Array, inside: Uint8Array, run: Float64Array): void {
   let m = run[0]!, mx = run[1]!, my = run[2]!, mz = run[3]!;
   for (let j = 0, c = i * ny * nz; j < ny; j++) {
@@ -48,9 +44,6 @@ function centrePlane(i: number, ny: number, nz: number, x: number, ys: Float64Ar
   run[0] = m; run[1] = mx; run[2] = my; run[3] = mz;
 }
 
-/** Cells per call of the block kernels (see KERNELS). */
-const BLOCK = 1 << 16;
-
 /** Adds density over cells [a, b) with inside = 1 to run[0]. */
 function insideSum(a: number, b: number, density: Float32Array, inside: Uint8Array, run: Float64Array): void {
   let m = run[0]!;
@@ -61,7 +54,7 @@ function insideSum(a: number, b: number, density: Float32Array, inside: Uint8Arr
 /** Mass (g) of the cells with inside = 1: the mass of cloudMassCentre, same sum in the same order. */
 export function cloudMass(g: Grid3, density: Float32Array, inside: Uint8Array): number {
   const run = new Float64Array(1);
-  for (let a = 0; a < density.length; a += BLOCK) insideSum(a, Math.min(density.length, a + BLOCK), density, inside, run);
+  forCellBlocks(density.length, (a, b) => insideSum(a, b, density, inside, run));
   return run[0]! * cellVolume(g);
 }
 

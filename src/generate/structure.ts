@@ -17,6 +17,7 @@ import type { WorkerPool } from '../grid/pool.js';
 import { realInverse3Parallel } from '../grid/fft3-parallel.js';
 import { fillLogDensityModes, type LogDensityModeParams } from './modes.js';
 import { applyLognormal } from './cell-kernels.js';
+import { forCellBlocks } from '../grid/cell-blocks.js';
 
 /** Makes the lognormal density: density (envelope, in place) times exp(s), s of width sigmaS over the cloud. */
 export async function applyLognormalStructure(
@@ -28,13 +29,13 @@ export async function applyLognormalStructure(
   onStep();
   await realInverse3Parallel(pool, spec, g, scratch, p.kMax);
   onStep();
-  // mean and standard deviation of s over the cloud, in cell order, block by block (see cloudSums)
+  // mean and standard deviation of s over the cloud, in cell order, through block kernels (src/grid/cell-blocks.ts)
   const run = new Float64Array(2);
-  for (let a = 0; a < inside.length; a += BLOCK) cloudSums(a, Math.min(inside.length, a + BLOCK), scratch, inside, run);
+  forCellBlocks(inside.length, (a, b) => cloudSums(a, b, scratch, inside, run));
   const n = run[0]!, s1 = run[1]!;
   const mean = n > 0 ? s1 / n : 0;
   const dev = new Float64Array(1);
-  for (let a = 0; a < inside.length; a += BLOCK) cloudSquares(a, Math.min(inside.length, a + BLOCK), scratch, inside, mean, dev);
+  forCellBlocks(inside.length, (a, b) => cloudSquares(a, b, scratch, inside, mean, dev));
   const s2 = dev[0]!;
   const std = n > 1 ? Math.sqrt(s2 / n) : 0;
   const scale = std > 0 ? sigmaS / std : 0;
@@ -44,9 +45,6 @@ export async function applyLognormalStructure(
   else applyLognormal(0, density.length, density, scratch, inside, mean, scale, shift);
   onStep();
 }
-
-/** Cells per call of the sum kernels: one loop's additions in the same order, in a function V8 optimises whole (a single long call would box its running doubles). */
-const BLOCK = 1 << 16;
 
 /** Adds the count and the sum of s over cloud cells [a, b) to run (count, sum). */
 function cloudSums(a: number, b: number, s: Float32Array, inside: Uint8Array, run: Float64Array): void {

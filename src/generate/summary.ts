@@ -22,6 +22,7 @@ import type { Envelope } from './envelope.js';
 import type { CloudDimensions } from './dimensions.js';
 import type { MagneticSetup } from './magnetic.js';
 import { cellVolume } from '../grid/grid3.js';
+import { forCellBlocks } from '../grid/cell-blocks.js';
 import { soundSpeed } from '../physics/sound-speed.js';
 import { jeansLength, jeansMass } from '../physics/jeans.js';
 import { freeFallTime } from '../physics/free-fall.js';
@@ -60,10 +61,7 @@ function structureText(config: Config): string {
   }
 }
 
-/** Cells per call of summarySums (one loop's additions in the same order, in a function V8 optimises whole). */
-const SUM_BLOCK = 1 << 16;
-
-/** Adds, over cells [a, b), rho (cloud), rho |v|^2 (cloud), rho T (cloud) and rho (all cells) to run. */
+/** Adds, over cells [a, b), rho (cloud), rho |v|^2 (cloud), rho T (cloud) and rho (all cells) to run (a block kernel: src/grid/cell-blocks.ts). */
 function summarySums(
   a: number, b: number, density: Float32Array, inside: Uint8Array, vx: Float32Array, vy: Float32Array, vz: Float32Array, temperature: Float32Array, run: Float64Array,
 ): void {
@@ -90,7 +88,7 @@ export function summarise(x: SummaryInput): CloudSummary {
   // one pass for the sums of rmsSpeed, sum rho T over the cloud and totalMass (each in cell order, as those functions do)
   const [vx, vy, vz] = velocity;
   const run = new Float64Array(4);
-  for (let a = 0; a < density.length; a += SUM_BLOCK) summarySums(a, Math.min(density.length, a + SUM_BLOCK), density, inside, vx, vy, vz, temperature, run);
+  forCellBlocks(density.length, (a, b) => summarySums(a, b, density, inside, vx, vy, vz, temperature, run));
   const m = run[0]!, e = run[1]!, mt = run[2]!, all = run[3]!;
   const dv = cellVolume(g);
   const sigma3D = m * dv > 0 ? Math.sqrt((e * dv) / (m * dv)) : 0;

@@ -12,6 +12,7 @@
  */
 import type { Grid3 } from '../grid/grid3.js';
 import { cellVolume } from '../grid/grid3.js';
+import { forCellBlocks } from '../grid/cell-blocks.js';
 import type { WorkerPool } from '../grid/pool.js';
 import { realInverse3Parallel } from '../grid/fft3-parallel.js';
 import { fillVelocityComponent, type VelocityModeParams } from './modes.js';
@@ -33,25 +34,21 @@ export async function rawTurbulence(g: Grid3, pool: WorkerPool | null, p: Veloci
  * Zeroes v outside the cloud and subtracts the mass-weighted mean velocity of the cloud (cm/s).
  * Returns the mass-weighted rms speed (cm/s) of the result, as rmsSpeed would compute it.
  * One pass zeroes and sums (the sums of velocityMoments, same order), one subtracts and sums again.
- * Each pass runs block by block through a kernel with its running sums in a Float64Array (the
- * same additions in the same order; V8 then optimises the kernel as a whole function).
+ * Each pass runs through a block kernel (src/grid/cell-blocks.ts): the same additions in the same order.
  */
 export function removeNetMomentum(g: Grid3, density: Float32Array, inside: Uint8Array, v: Vec3Field): number {
   const n = inside.length;
   const sums = new Float64Array(4); // m, px, py, pz
-  for (let a = 0; a < n; a += MOMENTUM_BLOCK) momentumSums(a, Math.min(n, a + MOMENTUM_BLOCK), density, inside, v[0], v[1], v[2], sums);
+  forCellBlocks(n, (a, b) => momentumSums(a, b, density, inside, v[0], v[1], v[2], sums));
   const dv = cellVolume(g);
   const mass = sums[0]! * dv;
   if (!(mass > 0)) return 0;
   const mx = (sums[1]! * dv) / mass, my = (sums[2]! * dv) / mass, mz = (sums[3]! * dv) / mass;
   const after = new Float64Array(2); // m, sum rho v^2
-  for (let a = 0; a < n; a += MOMENTUM_BLOCK) subtractMean(a, Math.min(n, a + MOMENTUM_BLOCK), density, inside, v[0], v[1], v[2], mx, my, mz, after);
+  forCellBlocks(n, (a, b) => subtractMean(a, b, density, inside, v[0], v[1], v[2], mx, my, mz, after));
   const mass2 = after[0]! * dv;
   return mass2 > 0 ? Math.sqrt((after[1]! * dv) / mass2) : 0;
 }
-
-/** Cells per kernel call of removeNetMomentum. */
-const MOMENTUM_BLOCK = 1 << 16;
 
 /** Zeroes v outside the cloud in cells [a, b) and adds rho, rho v to sums (m, px, py, pz). */
 function momentumSums(a: number, b: number, density: Float32Array, inside: Uint8Array, vx: Float32Array, vy: Float32Array, vz: Float32Array, sums: Float64Array): void {

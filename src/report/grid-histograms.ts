@@ -1,17 +1,14 @@
 /**
  * Whole-grid histograms of the report: the volume-weighted density PDF and the histogram of
  * per-cell Jeans numbers. Each is two tight passes, no per-cell allocation; the per-cell loops
- * run in kernels called once per block of cells (V8 then optimises them as whole functions:
- * one long call would run as on-stack-replaced code that boxes the doubles it carries), with
- * their running values in a Float64Array, so every sum is taken in cell order as one loop would.
+ * run in block kernels (src/grid/cell-blocks.ts), every sum taken in cell order as one loop would.
  */
 import type { GridResolution } from '../budget/types.js';
 import type { DensityPdfPlot, JeansHistogramPlot } from './plot-data.js';
+import { forCellBlocks } from '../grid/cell-blocks.js';
 
 const PDF_BINS = 60;
 const JEANS_BINS = 50;
-/** Cells per kernel call. */
-const BLOCK = 1 << 16;
 /** +Infinity and -Infinity as float64 values read from memory (literals in the loops make V8 box). */
 const INFINITIES = Float64Array.of(Infinity, -Infinity);
 
@@ -49,7 +46,7 @@ function pdfBins(a: number, b: number, density: Float32Array, mask: Uint8Array |
 /** Volume-weighted PDF of s = ln(rho/rho0) over the masked cells (all cells when mask is null). */
 export function densityPdf(density: Float32Array, mask: Uint8Array | null, sigmaExpected: number | null): DensityPdfPlot | null {
   const run = Float64Array.of(0, 0, INFINITIES[0]!, INFINITIES[1]!);
-  for (let a = 0; a < density.length; a += BLOCK) pdfRange(a, Math.min(density.length, a + BLOCK), density, mask, run);
+  forCellBlocks(density.length, (a, b) => pdfRange(a, b, density, mask, run));
   const n = run[0]!, sum = run[1]!, lo = run[2]!, hi = run[3]!;
   if (n < 2 || !(sum > 0)) return null;
   const rho0 = sum / n;
@@ -59,7 +56,7 @@ export function densityPdf(density: Float32Array, mask: Uint8Array | null, sigma
   const counts = new Float64Array(PDF_BINS);
   const lnRho0 = Math.log(rho0);
   const moments = new Float64Array(2);
-  for (let a = 0; a < density.length; a += BLOCK) pdfBins(a, Math.min(density.length, a + BLOCK), density, mask, lnRho0, sLo, width, counts, moments);
+  forCellBlocks(density.length, (a, b) => pdfBins(a, b, density, mask, lnRho0, sLo, width, counts, moments));
   const m1 = moments[0]!, m2 = moments[1]!;
   const mean = m1 / n;
   const sigma = Math.sqrt(Math.max(0, (m2 - n * mean * mean) / (n - 1)));
@@ -105,7 +102,7 @@ export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNu
   if (g.jeansNumberRange !== undefined) {
     if (g.jeansNumberRange !== null) { range[0] = g.jeansNumberRange[0]; range[1] = g.jeansNumberRange[1]; }
   } else {
-    for (let a = 0; a < j.length; a += BLOCK) jeansRange(a, Math.min(j.length, a + BLOCK), j, range);
+    forCellBlocks(j.length, (a, b) => jeansRange(a, b, j, range));
   }
   const lo = range[0]!, hi = range[1]!;
   if (!(hi >= lo)) return null;
@@ -115,7 +112,7 @@ export function jeansHistogram(g: GridResolution | Pick<GridResolution, 'jeansNu
   const counts = new Float64Array(JEANS_BINS);
   const inv = 1 / (width * Math.LN10);
   const last = Float64Array.of(Number.NaN, 0);
-  for (let a = 0; a < j.length; a += BLOCK) jeansBins(a, Math.min(j.length, a + BLOCK), j, l0, inv, counts, last);
+  forCellBlocks(j.length, (a, b) => jeansBins(a, b, j, l0, inv, counts, last));
   return {
     log10_j_edges: Array.from({ length: JEANS_BINS + 1 }, (_, b) => l0 + b * width),
     counts: Array.from(counts),
