@@ -85,6 +85,7 @@ describe('node gravity', () => {
       return c.g;
     };
     let parents = 0;
+    const lattice = new Int32Array(tree.count); // interaction factor of a parent, 0 for nodes summed adaptively
     for (let t = 0; t < tree.count; t++) {
       // reference: every grid deposited afresh from the node's full cell list (the plain method)
       const kids = tree.children[t]!;
@@ -103,6 +104,7 @@ describe('node gravity', () => {
         continue;
       }
       parents++;
+      lattice[t] = f;
       let w = coarseSelfEnergy(coarseGrain(density, shape, dx, idx, gravityCells, f));
       for (const c of kids) w += got.energy[c]! - coarseSelfEnergy(coarseGrain(density, shape, dx, cellsOf(c), gravityCells, f));
       // same sums in another order: equal to rounding
@@ -111,5 +113,8 @@ describe('node gravity', () => {
     }
     expect(parents).toBeGreaterThan(0);
     expect(extent(tree.roots[0]!)).toBeGreaterThan(PARENT_CELLS);
+    // a child on its parent's lattice (its energies there are taken from its own job) is among them
+    const sameLattice = Array.from({ length: tree.count }, (_, t) => t).filter((t) => tree.parent[t]! >= 0 && lattice[t]! > 0 && lattice[t] === lattice[tree.parent[t]!]);
+    expect(sameLattice.length).toBeGreaterThan(0);
   });
 });

@@ -20,8 +20,11 @@
  * cells plus its children's coarse boxes (already on the parent's lattice, kept until the
  * parent is done), never from all its descendants' cells again, so building every grid costs
  * O(cells + nodes x box size) rather than O(cells x tree depth). Nodes without the tree terms
- * deposit their cells directly, in list order, as before. The energy sums (FFT convolutions,
- * pair sums) run on the worker pool.
+ * deposit their cells directly, in list order, as before. A child whose own lattice is its
+ * parent's (common in deep, chain-like trees) has the same box there as its own term grid, bit
+ * for bit, so its two energies are taken from its own job instead of being summed again (a
+ * quarter to a third fewer interaction grids at 256^3). The energy sums (FFT convolutions, pair
+ * sums) run on the worker pool.
  */
 import type { MergeTree } from './merge-tree.js';
 import type { NodeCells } from './cell-lists.js';
@@ -109,7 +112,13 @@ function toCoarse(box: Box, dx: number): CoarseMass {
   return { g, factor, side: factor * dx, mass, occupied };
 }
 
-type Job = { kind: 'adaptive'; id: number; grid: CoarseMass } | { kind: 'terms'; id: number; grids: CoarseMass[]; children: number };
+/**
+ * A node's work: one coarse grid summed adaptively, or its interaction-term grids: its own at factors
+ * f and 2f, then those of each child on the same lattices that is not `reused` (a child whose own
+ * lattice is the node's: its grids are its own term grids, bit for bit, and its energies are taken
+ * from its own job).
+ */
+type Job = { kind: 'adaptive'; id: number; grid: CoarseMass } | { kind: 'terms'; id: number; grids: CoarseMass[]; reused: boolean[] };
 
 /** A job as sent to a worker: one coarse grid summed adaptively, or the grids of a parent's interaction terms. */
 export type GravityJobData = { adaptive: CoarseMass } | { terms: CoarseMass[] };
@@ -139,7 +148,9 @@ export async function nodeGravity(
 ): Promise<NodeGravity> {
   const n = tree.count;
   const out: NodeGravity = { energy: new Float64Array(n), factor: new Int32Array(n), cellsPerSide: new Int32Array(n), relativeError: new Float64Array(n) };
-  const corrF = new Float64Array(n), corr2F = new Float64Array(n), isTerms = new Uint8Array(n);
+  // energies (erg) of a terms node's grids at f and 2f: its own, and per child on its lattices
+  const ownF = new Float64Array(n), own2F = new Float64Array(n), isTerms = new Uint8Array(n);
+  const childF: number[][] = new Array(n), child2F: number[][] = new Array(n), childReused: boolean[][] = new Array(n);
   const vol = dx * dx * dx;
   // coordinates and densities of the listed cells, so deposits need no index arithmetic
   const all = lists.listed;
@@ -199,11 +210,15 @@ export async function nodeGravity(
     depositCells(own2, all, lists.start[id]!, ownEnd[id]!, vol);
     const grids: CoarseMass[] = [];
     const childGrids: CoarseMass[] = [];
+    const reused: boolean[] = [];
     for (const c of kids) {
       const a = upF[c]!, b = up2F[c]!;
       addBox(own, a);
       addBox(own2, b);
-      childGrids.push(toCoarse(a, dx), toCoarse(b, dx));
+      // a child on this node's own lattice: its boxes here hold exactly its own term grids
+      const same = shiftOf[c] === sh;
+      reused.push(same);
+      if (!same) childGrids.push(toCoarse(a, dx), toCoarse(b, dx));
       upF[c] = null; up2F[c] = null;
     }
     grids.push(toCoarse(own, dx), toCoarse(own2, dx), ...childGrids);
@@ -213,7 +228,7 @@ export async function nodeGravity(
       addBox(b, own2);
       upF[id] = a; up2F[id] = b;
     }
-    return { kind: 'terms', id, grids, children: kids.length };
+    return { kind: 'terms', id, grids, reused };
   };
   let done = 0;
   const finish = (job: Job, value: GravityEstimate | number[]): void => {
@@ -225,10 +240,15 @@ export async function nodeGravity(
       out.relativeError[job.id] = e.relativeError;
     } else {
       const e = value as number[];
-      let f = e[0]!, f2 = e[1]!;
-      for (let c = 0; c < job.children; c++) { f -= e[2 + 2 * c]!; f2 -= e[3 + 2 * c]!; }
-      corrF[job.id] = f;
-      corr2F[job.id] = f2;
+      ownF[job.id] = e[0]!;
+      own2F[job.id] = e[1]!;
+      const cf: number[] = [], c2f: number[] = [];
+      for (let c = 0, q = 2; c < job.reused.length; c++) {
+        if (job.reused[c]) { cf.push(0); c2f.push(0); } else { cf.push(e[q]!); c2f.push(e[q + 1]!); q += 2; }
+      }
+      childF[job.id] = cf;
+      child2F[job.id] = c2f;
+      childReused[job.id] = job.reused;
       isTerms[job.id] = 1;
       out.factor[job.id] = job.grids[0]!.factor;
       out.cellsPerSide[job.id] = job.grids[0]!.g;
@@ -268,11 +288,18 @@ export async function nodeGravity(
       finish(job, job.kind === 'adaptive' ? adaptiveSelfEnergy(job.grid, tolerance) : coarseEnergies(job.grids));
     }
   }
-  // combine bottom-up (children have smaller ids)
+  // combine bottom-up (children have smaller ids); the bracket E_f(node) - sum_c E_f(c), children in order
   const absErr = new Float64Array(n);
   for (let id = 0; id < n; id++) {
     if (!isTerms[id]) { absErr[id] = out.relativeError[id]! * Math.abs(out.energy[id]!); continue; }
-    let w = corrF[id]!, err = Math.abs(corrF[id]! - corr2F[id]!);
+    let corrF = ownF[id]!, corr2F = own2F[id]!;
+    const kids = tree.children[id]!;
+    for (let c = 0; c < kids.length; c++) {
+      const reused = childReused[id]![c]!;
+      corrF -= reused ? ownF[kids[c]!]! : childF[id]![c]!;
+      corr2F -= reused ? own2F[kids[c]!]! : child2F[id]![c]!;
+    }
+    let w = corrF, err = Math.abs(corrF - corr2F);
     for (const c of tree.children[id]!) { w += out.energy[c]!; err += absErr[c]!; }
     out.energy[id] = w;
     absErr[id] = err;
