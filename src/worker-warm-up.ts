@@ -16,7 +16,7 @@ export type WarmUp = 'transforms';
 /** Cells per side of the made-up grid. */
 const SIDE = 32;
 
-/** Runs the band-limited inverse and the forward 3D transform (both on shared memory) a few times on a SIDE^3 grid. */
+/** Runs the band-limited inverse and the forward 3D transform (shared Float32 field; and a Float64 one) a few times on a SIDE^3 grid. */
 export function warmUpTransforms(rounds = 3): void {
   const g = { nx: SIDE, ny: SIDE, nz: SIDE, boxSize: 1 };
   const band = SIDE / 4;
@@ -26,6 +26,8 @@ export function warmUpTransforms(rounds = 3): void {
     const field = new Float32Array(new SharedArrayBuffer(4 * SIDE ** 3));
     realInverse3(spec, g, field, band);
     realForward3(field, g);
+    // the self-gravity transforms double-precision grids: the forward pass sees both array types
+    realForward3(Float64Array.from(field), g);
   }
 }
 

@@ -113,6 +113,14 @@ function allPositiveZero(line: Float64Array): boolean {
   return true;
 }
 
+/**
+ * A known output line as complexAxis keeps it: null when it is +0 throughout (it equals what the
+ * spectrum already holds there, +0 in, +0 out: nothing to write), else the line.
+ */
+function toWrite(out: Float64Array): Float64Array | null {
+  return allPositiveZero(out) ? null : out;
+}
+
 /** Transform (plan p, direction inverse) of the line whose every complex value is (re, im). */
 function constantLineTransform(p: FFT, n: number, inverse: boolean, re: number, im: number): Float64Array {
   const src = new Float64Array(2 * n);
@@ -150,9 +158,6 @@ export function complexAxis(spec: Float64Array, g: Grid3, axis: 0 | 1, inverse: 
   // known lines (see `band`): axis 0 input all +0; axis 1 input constant, the x-transform of +0 at index i
   const hinted = band < Infinity;
   const zeroX = hinted ? constantLineTransform(plan(nx), nx, inverse, 0, 0) : null;
-  // a known output that is +0 throughout equals what the spectrum already holds there (+0 in, +0
-  // out): it is kept as null, meaning nothing to write
-  const toWrite = (out: Float64Array): Float64Array | null => (allPositiveZero(out) ? null : out);
   const knownOut = hinted && axis === 0 ? toWrite(constantLineTransform(p, n, inverse, 0, 0)) : null;
   const knownByBits = new Map<string, Float64Array | null>();
   let line = start;
@@ -312,8 +317,8 @@ export function inverseZ(spec: Float64Array, field: Float32Array | Float64Array,
 export function realForward3(field: ArrayLike<number>, g: Grid3, spec: Float64Array = new Float64Array(halfSpectrumLength(g))): Float64Array {
   assertFftShape(g);
   forwardZ(field, spec, g);
-  complexAxis(spec, g, 1, false);
-  complexAxis(spec, g, 0, false);
+  complexAxis(spec, g, 1, false, 0, axisLineCount(g, 1));
+  complexAxis(spec, g, 0, false, 0, axisLineCount(g, 0));
   return spec;
 }
 

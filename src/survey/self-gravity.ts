@@ -25,7 +25,7 @@
  * -(3/5) G M^2/R; coarse-grained to 13 cells across, within 1 %; the a^2 scaling holds.
  */
 import { G } from '../physics/constants.js';
-import { realForward3, halfSpectrumLength, halfLength, forwardZ, complexAxis } from '../grid/fft3.js';
+import { realForward3, halfSpectrumLength, halfLength, forwardZ, complexAxis, axisLineCount } from '../grid/fft3.js';
 
 /** Mean inverse distance of two independent uniform points in the unit cube (box integral; value from memory, verified numerically in test/outside/self-gravity.test.ts). */
 export const UNIT_CUBE_MEAN_INVERSE_DISTANCE = 1.8823126444;
@@ -86,7 +86,7 @@ export function coarseGridSelfEnergy(mass: Float64Array, g: number, a: number): 
   spec.fill(0);
   for (let i = 0; i < g; i++) forwardZ(padded, spec, grid, i * n, i * n + g);
   complexAxis(spec, grid, 1, false, 0, g * nh);
-  complexAxis(spec, grid, 0, false);
+  complexAxis(spec, grid, 0, false, 0, axisLineCount(grid, 0));
   // Parseval: sum_x m(x) (K * m)(x) = (1/N) sum_k K(k) |M(k)|^2 over the full spectrum; the kernel
   // is even, so K is real, and the half spectrum counts the planes 0 < kz < n/2 twice
   const kern = greenSpectrum(g);
