@@ -67,22 +67,31 @@ export function splitRange(total: number, n: number): Array<[number, number]> {
   return out;
 }
 
+/** Tasks a worker holds at once (one running, the others waiting in its message queue). */
+const PIPELINE = 2;
+
 /** Starts a pool of `size` worker threads; `warmUp`: what each thread first runs on made-up data (src/worker-warm-up.ts). */
 export function createPool(size: number = defaultWorkerCount(), warmUp?: WarmUp): WorkerPool {
   const script = workerScript();
   const workers: Worker[] = [];
-  const idle: Worker[] = [];
+  // tasks posted to each worker and not yet answered (running, or waiting in its message queue)
+  const outstanding: number[] = [];
   const queue: Array<{ job: Job; resolve: (v: unknown) => void; reject: (e: Error) => void }> = [];
-  const pending = new Map<number, { resolve: (v: unknown) => void; reject: (e: Error) => void; worker: Worker }>();
+  const pending = new Map<number, { resolve: (v: unknown) => void; reject: (e: Error) => void; worker: number }>();
   let nextId = 0;
 
+  // Each worker holds up to PIPELINE tasks: the next one already sits in its message queue when it
+  // finishes, so it does not wait for this thread to receive the reply and post again (this thread
+  // may be busy then: writing files, building the next tasks). Idle workers are served first.
   const dispatch = (): void => {
-    while (idle.length && queue.length) {
-      const w = idle.pop()!;
+    while (queue.length) {
+      let w = -1;
+      for (let i = 0; i < workers.length; i++) if (outstanding[i]! < PIPELINE && (w < 0 || outstanding[i]! < outstanding[w]!)) w = i;
+      if (w < 0) return;
       const item = queue.shift()!;
       pending.set(item.job.id, { resolve: item.resolve, reject: item.reject, worker: w });
-      w.ref(); // keep the process alive while a job runs; idle workers never hold it open
-      w.postMessage(item.job);
+      if (outstanding[w]!++ === 0) workers[w]!.ref(); // keep the process alive while a job runs; idle workers never hold it open
+      workers[w]!.postMessage(item.job);
     }
   };
 
@@ -92,18 +101,17 @@ export function createPool(size: number = defaultWorkerCount(), warmUp?: WarmUp)
       const p = pending.get(r.id);
       if (!p) return;
       pending.delete(r.id);
-      w.unref();
-      idle.push(w);
+      if (--outstanding[i]! === 0) w.unref();
       if (r.ok) p.resolve(r.value);
       else p.reject(new Error(r.error ?? 'worker task failed'));
       dispatch();
     });
     w.on('error', (e) => {
-      for (const [id, p] of pending) if (p.worker === w) { pending.delete(id); p.reject(e); }
+      for (const [id, p] of pending) if (p.worker === i) { pending.delete(id); p.reject(e); }
     });
     w.unref();
     workers.push(w);
-    idle.push(w);
+    outstanding.push(0);
   }
 
   const run = <T>(task: string, args: unknown[]): Promise<T> =>

@@ -103,7 +103,7 @@ function radixPass(idx: Int32Array, key: Uint32Array, idx2: Int32Array, key2: Ui
  * (Each loop sits in a function of its own: V8 compiles a long-running function at one loop at a time,
  * and code after that loop, not yet run, would throw it back to the interpreter and recompile it.)
  */
-function sortCellsAboveWithKeys(density: Float32Array, floor: number, alloc: ScratchAlloc = plainAlloc): { order: Int32Array; keys: Uint32Array } {
+function sortCellsAboveWithKeys(density: Float32Array, floor: number, alloc: ScratchAlloc = plainAlloc): { order: Int32Array; keys: Uint32Array; spare: Int32Array } {
   const m = countAbove(density, floor);
   let idx = new Int32Array(alloc(4 * m), 0, m);
   let key = new Uint32Array(alloc(4 * m), 0, m);
@@ -117,7 +117,8 @@ function sortCellsAboveWithKeys(density: Float32Array, floor: number, alloc: Scr
     [idx, idx2] = [idx2, idx];
     [key, key2] = [key2, key];
   }
-  return { order: idx, keys: key };
+  // the other two arrays are free now (spare: one of them, m Int32 values)
+  return { order: idx, keys: key, spare: idx2 };
 }
 
 /**
@@ -350,7 +351,7 @@ export function buildMergeTree(
   const { nx, ny, nz } = shape;
   const n = nx * ny * nz;
   if (density.length !== n) throw new RangeError(`density has ${density.length} values, shape holds ${n}`);
-  const { order, keys } = sortCellsAboveWithKeys(density, floor, alloc);
+  const { order, keys, spare } = sortCellsAboveWithKeys(density, floor, alloc);
   const sorted = new Float32Array(keys.buffer, keys.byteOffset, keys.length); // density[order[p]], read in sequence
   const m = order.length;
 
@@ -362,7 +363,7 @@ export function buildMergeTree(
   // (the labels array itself: the state is dead before the labels are written)
   if (labelsOut && labelsOut.length !== n) throw new RangeError(`labelsOut has ${labelsOut.length} values, shape holds ${n}`);
   const st = labelsOut ? labelsOut.fill(0) : new Int32Array(n);
-  const byRank = new Int32Array(m); // tentative node of the cell order[p]
+  const byRank = spare; // tentative node of the cell order[p] (every entry is written before it is read)
   const nodes = addCells(order, sorted, st, byRank, shape, connectivity, limits, cellVolume, onProgress);
   const count = nodes.count;
   // judge the remaining regions at the floor; drop those that fail
