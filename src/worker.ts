@@ -10,6 +10,7 @@ import type { Grid3 } from './grid/grid3.js';
 import { GENERATE_TASKS } from './generate/worker-tasks.js';
 import { SURVEY_TASKS } from './survey/worker-tasks.js';
 import { REPORT_TASKS } from './report/worker-tasks.js';
+import { EXPORT_TASKS } from './export/worker-tasks.js';
 
 type Task = (...args: never[]) => unknown;
 
@@ -21,6 +22,7 @@ const TASKS: Record<string, Task> = {
   ...GENERATE_TASKS,
   ...SURVEY_TASKS,
   ...REPORT_TASKS,
+  ...EXPORT_TASKS,
 };
 
 // a plan's threads first warm up the functions they will run (src/worker-warm-up.ts); messages wait meanwhile

@@ -87,3 +87,31 @@ describe('writeGridExports', () => {
     expect(Object.keys(m.unit_systems).sort()).toEqual(['cgs', 'code']);
   });
 });
+
+describe('writeGridExports on worker threads', () => {
+  it('writes the float32 .npy and .raw files of shared fields on the workers with the same bytes and manifest as here', async () => {
+    const { createPool } = await import('../src/grid/pool.js');
+    const base = fixtureCloud({ n: 8 });
+    const share = (a: Float32Array): Float32Array => { const s = new Float32Array(new SharedArrayBuffer(a.byteLength)); s.set(a); return s; };
+    const cloud = { ...base, density: share(base.density), temperature: share(base.temperature), velocity: base.velocity.map(share) as [Float32Array, Float32Array, Float32Array] };
+    const dirs = [mkdtempSync(path.join(tmpdir(), 'fragplan-ic-here-')), mkdtempSync(path.join(tmpdir(), 'fragplan-ic-pool-'))];
+    const pool = createPool(2);
+    try {
+      const opts: GridExportOptions = { ...ALL, formats: ['npy', 'raw'], particles: null };
+      const here = await writeGridExports(cloud, dirs[0]!, opts, META);
+      const there = await writeGridExports(cloud, dirs[1]!, { ...opts, pool }, META);
+      expect(there.files).toEqual(here.files);
+      expect(Object.keys(there.files)).toEqual(Object.keys(here.files)); // same order in manifest.json
+      for (const f of Object.keys(here.files)) {
+        expect(sha(path.join(dirs[1]!, f))).toBe(here.files[f]!.sha256);
+        expect(readFileSync(path.join(dirs[1]!, f)).equals(readFileSync(path.join(dirs[0]!, f)))).toBe(true);
+      }
+      expect(readdirSync(dirs[1]!).filter((f) => f.endsWith('.tmp'))).toEqual([]);
+      // an existing file is not replaced without force (the check runs before any worker writes)
+      await expect(writeGridExports(cloud, dirs[1]!, { ...opts, pool }, META)).rejects.toThrow(/already exists/);
+    } finally {
+      await pool.close();
+      for (const d of dirs) rmSync(d, { recursive: true, force: true });
+    }
+  });
+});

@@ -15,7 +15,8 @@ import { silentProgress } from '../progress.js';
 import { assertWritable, writeFileAtomic, openAtomicStream } from './atomic-file.js';
 import { littleEndianBytes, npyHeader } from './npy.js';
 import { gridFields, groupVectors, INTERNAL_ENERGY_GAMMA, floatArray, type ThermalField } from './grid-fields.js';
-import { writeFieldStream } from './grid-stream.js';
+import { writeFieldStream, type WrittenFile } from './grid-stream.js';
+import type { WorkerPool } from '../grid/pool.js';
 import { writeVti } from './vti-writer.js';
 import { writeHdf5, type H5Array } from './hdf5-writer.js';
 import { sampleParticles, type ParticleMethod, type ParticleSet } from './particles.js';
@@ -42,6 +43,8 @@ export interface GridExportOptions {
   onWritten?: (name: string) => void;
   /** Mean molecular weight for the internal energy; default cloud.summary.mu. */
   mu?: number;
+  /** Worker threads: float32 .npy/.raw files that hold a shared field as it is are written there, all at once (same bytes). */
+  pool?: WorkerPool | null;
 }
 
 /** Provenance written into the manifest. */
@@ -153,13 +156,20 @@ export async function writeGridExports(cloudIn: Cloud, icDir: string, opts: Grid
   for (const fmt of formats) {
     if (fmt === 'npy' || fmt === 'raw') {
       const st = progress.stage(`writing ${fmt} grids`, fields.length * g.nx);
-      let base = 0;
-      for (const f of fields) {
+      // files that are a shared field's bytes as they are go to the worker threads first, all at once
+      const header = fmt === 'npy' ? npyHeader(dtype, shape) : new Uint8Array(0);
+      let done = 0;
+      const onWorker = fields.map((f) => (opts.pool && dtype === 'float32' && f.scale === 1 && f.source.buffer instanceof SharedArrayBuffer
+        ? opts.pool.run<WrittenFile>('exportFieldFile', [path.join(icDir, gridFileName(f.name, fmt)), header, f.source, opts.force]).then((w) => { st.update(done += g.nx); return w; })
+        : null));
+      onWorker.forEach((p) => p?.catch(() => {})); // awaited below; a failure is reported there
+      for (const [q, f] of fields.entries()) {
         const name = gridFileName(f.name, fmt);
+        const base = done;
         const sub = { update: (d: number) => st.update(base + d), stop: () => {} };
-        const w = await writeFieldStream(path.join(icDir, name), f, g, dtype, fmt === 'npy', opts.force, sub);
+        const w = await (onWorker[q] ?? writeFieldStream(path.join(icDir, name), f, g, dtype, fmt === 'npy', opts.force, sub));
+        if (!onWorker[q]) done += g.nx;
         record(name, { format: fmt, contents: f.name, shape: [...shape], unit: f.unit, to_cgs: f.toCgs, data_offset_bytes: fmt === 'npy' ? headerBytes : 0, ...w });
-        base += g.nx;
       }
       st.stop();
     } else if (fmt === 'vti') {

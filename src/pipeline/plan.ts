@@ -173,7 +173,7 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       mkdirSync(runDir, { recursive: true });
       const icWrite = writeGridExports(cloud, path.join(runDir, 'ic'), {
         formats: ex.formats, precision: ex.precision, units: ex.units, codeUnits: { length: ex.code_units.length, mass: ex.code_units.mass },
-        thermalField: ex.thermal_field, particles: ex.particles ?? null, force: opts.force, mu: cloud.summary.mu,
+        thermalField: ex.thermal_field, particles: ex.particles ?? null, force: opts.force, mu: cloud.summary.mu, pool,
       }, { toolVersion: TOOL_VERSION, seed: config.seed, configText: loaded.text, configSha256: loaded.sha256, name: loaded.name }, silentProgress)
         .then(() => { timings.write_ic = (performance.now() - t) / 1000; });
       icWrite.catch(() => {}); // awaited after the survey; a failure is reported there
