@@ -13,13 +13,18 @@ import type { WarmUp } from '../worker-warm-up.js';
 
 /** A message to a worker: task name and its arguments (typed arrays on shared memory are shared). */
 interface Job { id: number; task: string; args: unknown[] }
+/** A queued task: the job, what to transfer with it, and its promise's ends. */
+interface Queued { job: Job; transfer: readonly ArrayBuffer[]; resolve: (v: unknown) => void; reject: (e: Error) => void }
 interface Reply { id: number; ok: boolean; value?: unknown; error?: string }
 
 /** A running pool of worker threads. */
 export interface WorkerPool {
   readonly size: number;
-  /** Runs one task on a free worker; resolves with its return value. */
-  run<T>(task: string, args: unknown[]): Promise<T>;
+  /**
+   * Runs one task on a free worker; resolves with its return value. `transfer`: buffers among the
+   * arguments that move to the worker instead of being copied (unusable here afterwards).
+   */
+  run<T>(task: string, args: unknown[], transfer?: readonly ArrayBuffer[]): Promise<T>;
   /** Splits [0, total) into `size` contiguous ranges and runs task(start, end, ...args) on each. */
   runRanges<T>(task: string, total: number, args: unknown[]): Promise<T[]>;
   /** Stops every worker. */
@@ -76,7 +81,7 @@ export function createPool(size: number = defaultWorkerCount(), warmUp?: WarmUp)
   const workers: Worker[] = [];
   // tasks posted to each worker and not yet answered (running, or waiting in its message queue)
   const outstanding: number[] = [];
-  const queue: Array<{ job: Job; resolve: (v: unknown) => void; reject: (e: Error) => void }> = [];
+  const queue: Queued[] = [];
   const pending = new Map<number, { resolve: (v: unknown) => void; reject: (e: Error) => void; worker: number }>();
   let nextId = 0;
 
@@ -91,7 +96,7 @@ export function createPool(size: number = defaultWorkerCount(), warmUp?: WarmUp)
       const item = queue.shift()!;
       pending.set(item.job.id, { resolve: item.resolve, reject: item.reject, worker: w });
       if (outstanding[w]!++ === 0) workers[w]!.ref(); // keep the process alive while a job runs; idle workers never hold it open
-      workers[w]!.postMessage(item.job);
+      workers[w]!.postMessage(item.job, item.transfer);
     }
   };
 
@@ -114,9 +119,9 @@ export function createPool(size: number = defaultWorkerCount(), warmUp?: WarmUp)
     outstanding.push(0);
   }
 
-  const run = <T>(task: string, args: unknown[]): Promise<T> =>
+  const run = <T>(task: string, args: unknown[], transfer: readonly ArrayBuffer[] = []): Promise<T> =>
     new Promise<T>((resolve, reject) => {
-      queue.push({ job: { id: nextId++, task, args }, resolve: resolve as (v: unknown) => void, reject });
+      queue.push({ job: { id: nextId++, task, args }, transfer, resolve: resolve as (v: unknown) => void, reject });
       dispatch();
     });
 

@@ -267,7 +267,9 @@ export async function nodeGravity(
       const jobs = batch;
       batch = [];
       batchCells = 0;
-      const p: Promise<void> = pool.run<Array<GravityEstimate | number[]>>('surveyGravityBatch', [jobs.map(jobData), tolerance])
+      // the coarse grids move to the worker (each has a buffer of its own, not read here again)
+      const moved = jobs.flatMap((job) => (job.kind === 'adaptive' ? [job.grid] : job.grids).map((c) => c.mass.buffer as ArrayBuffer));
+      const p: Promise<void> = pool.run<Array<GravityEstimate | number[]>>('surveyGravityBatch', [jobs.map(jobData), tolerance], moved)
         .then((values) => { jobs.forEach((job, q) => finish(job, values[q]!)); inFlight.delete(p); });
       inFlight.add(p);
     };
