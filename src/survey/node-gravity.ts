@@ -148,9 +148,8 @@ export async function nodeGravity(
 ): Promise<NodeGravity> {
   const n = tree.count;
   const out: NodeGravity = { energy: new Float64Array(n), factor: new Int32Array(n), cellsPerSide: new Int32Array(n), relativeError: new Float64Array(n) };
-  // energies (erg) of a terms node's grids at f and 2f: its own, and per child on its lattices
-  const ownF = new Float64Array(n), own2F = new Float64Array(n), isTerms = new Uint8Array(n);
-  const childF: number[][] = new Array(n), child2F: number[][] = new Array(n), childReused: boolean[][] = new Array(n);
+  // a terms node's job and its energies (erg): its own grids at f and 2f, then each child's not reused
+  const terms: Array<{ reused: boolean[]; e: number[] } | undefined> = new Array(n);
   const vol = dx * dx * dx;
   // coordinates and densities of the listed cells, so deposits need no index arithmetic
   const all = lists.listed;
@@ -239,17 +238,7 @@ export async function nodeGravity(
       out.cellsPerSide[job.id] = e.cellsPerSide;
       out.relativeError[job.id] = e.relativeError;
     } else {
-      const e = value as number[];
-      ownF[job.id] = e[0]!;
-      own2F[job.id] = e[1]!;
-      const cf: number[] = [], c2f: number[] = [];
-      for (let c = 0, q = 2; c < job.reused.length; c++) {
-        if (job.reused[c]) { cf.push(0); c2f.push(0); } else { cf.push(e[q]!); c2f.push(e[q + 1]!); q += 2; }
-      }
-      childF[job.id] = cf;
-      child2F[job.id] = c2f;
-      childReused[job.id] = job.reused;
-      isTerms[job.id] = 1;
+      terms[job.id] = { reused: job.reused, e: value as number[] };
       out.factor[job.id] = job.grids[0]!.factor;
       out.cellsPerSide[job.id] = job.grids[0]!.g;
     }
@@ -293,13 +282,17 @@ export async function nodeGravity(
   // combine bottom-up (children have smaller ids); the bracket E_f(node) - sum_c E_f(c), children in order
   const absErr = new Float64Array(n);
   for (let id = 0; id < n; id++) {
-    if (!isTerms[id]) { absErr[id] = out.relativeError[id]! * Math.abs(out.energy[id]!); continue; }
-    let corrF = ownF[id]!, corr2F = own2F[id]!;
+    const t = terms[id];
+    if (!t) { absErr[id] = out.relativeError[id]! * Math.abs(out.energy[id]!); continue; }
+    let corrF = t.e[0]!, corr2F = t.e[1]!;
     const kids = tree.children[id]!;
-    for (let c = 0; c < kids.length; c++) {
-      const reused = childReused[id]![c]!;
-      corrF -= reused ? ownF[kids[c]!]! : childF[id]![c]!;
-      corr2F -= reused ? own2F[kids[c]!]! : child2F[id]![c]!;
+    for (let c = 0, q = 2; c < kids.length; c++) {
+      // a reused child's energies on these lattices are its own first two
+      const src = t.reused[c] ? terms[kids[c]!]!.e : t.e;
+      const at = t.reused[c] ? 0 : q;
+      corrF -= src[at]!;
+      corr2F -= src[at + 1]!;
+      if (!t.reused[c]) q += 2;
     }
     let w = corrF, err = Math.abs(corrF - corr2F);
     for (const c of tree.children[id]!) { w += out.energy[c]!; err += absErr[c]!; }
