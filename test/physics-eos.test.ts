@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { eosTemperature, eosTemperatureFloat32, type Eos } from '../src/physics/eos.js';
+import { eosFromSettings, eosTemperature, eosTemperatureFloat32, type Eos } from '../src/physics/eos.js';
 
 describe('eosTemperatureFloat32', () => {
   it('gives the Float32 of eosTemperature bit for bit (random densities over 1e-27..1e-9 g/cm^3, several gammas and base temperatures)', () => {
@@ -26,5 +26,15 @@ describe('eosTemperatureFloat32', () => {
     for (const [t0, rho] of [[15, 0], [15, 1e-200], [15, 1e200], [0, 1e-20], [15, Infinity]] as const) {
       expect(Object.is(eosTemperatureFloat32(eos, t0, rho), Math.fround(eosTemperature(eos, t0, rho)))).toBe(true);
     }
+  });
+});
+
+describe('eosFromSettings', () => {
+  it('gives the isothermal EOS, or the barotropic one with the stated critical density and gamma', () => {
+    expect(eosFromSettings({ kind: 'isothermal', critical_density: 1e-13, gamma: 1.4 })).toEqual({ kind: 'isothermal' });
+    const e = eosFromSettings({ kind: 'barotropic', critical_density: 2e-13, gamma: 5 / 3 });
+    expect(e).toEqual({ kind: 'barotropic', criticalDensity: 2e-13, gamma: 5 / 3 });
+    // at the critical density the temperature doubles (T = T0 [1 + (rho/rho_c)^(gamma-1)]; Masunaga & Inutsuka 2000 form)
+    expect(eosTemperature(e, 10, 2e-13)).toBeCloseTo(20, 12);
   });
 });

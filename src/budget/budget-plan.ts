@@ -1,13 +1,12 @@
 /** Resolves the config's budget section (and EOS) into the planned run the budget judges. cgs. */
 import type { Config } from '../config/schema.js';
-import type { Eos } from '../physics/eos.js';
+import { eosFromSettings, type Eos } from '../physics/eos.js';
 import { forcingParameterForWeight, lognormalWidth } from '../physics/turbulence.js';
 import type { BudgetCloud, BudgetPlan } from './types.js';
 
 /** The EOS of the config's cloud.eos section. */
 export function eosFromConfig(config: Config): Eos {
-  const e = config.cloud.eos;
-  return e.kind === 'isothermal' ? { kind: 'isothermal' } : { kind: 'barotropic', criticalDensity: e.critical_density, gamma: e.gamma };
+  return eosFromSettings(config.cloud.eos);
 }
 
 /** Forcing parameter b of the turbulence: structure.b if given, else from the Helmholtz weight (Federrath et al. 2010). */

@@ -23,7 +23,7 @@ import { soundSpeed } from '../physics/sound-speed.js';
 import { M_SUN } from '../physics/constants.js';
 import { sigmaForVirialParameter } from '../physics/virial.js';
 import { forcingParameterForWeight, lognormalWidth } from '../physics/turbulence.js';
-import type { Eos } from '../physics/eos.js';
+import { eosFromSettings, type Eos } from '../physics/eos.js';
 import { resolveEnvelope } from './envelope.js';
 import { cloudDimensions } from './dimensions.js';
 import { fillTemperature, gridEnvelope } from './cell-kernels.js';
@@ -188,7 +188,7 @@ async function build(config: Config, seed: number, cells: number, pool: WorkerPo
   onDensity?.(density, g, dims.ambientDensity);
 
   // 5. turbulence: its transforms are queued on the pool first; this thread meanwhile finds the centre of mass
-  const eos: Eos = c.eos.kind === 'barotropic' ? { kind: 'barotropic', criticalDensity: c.eos.critical_density, gamma: c.eos.gamma } : { kind: 'isothermal' };
+  const eos: Eos = eosFromSettings(c.eos);
   // the temperature needs only the final density: on the pool, it runs while this thread removes the net momentum
   let temperatureP: Promise<unknown> | null = null;
   const startTemperature = (): void => {

@@ -12,6 +12,11 @@ export type Eos =
   | { readonly kind: 'isothermal' }
   | { readonly kind: 'barotropic'; readonly criticalDensity: number; readonly gamma: number };
 
+/** The Eos for settings as a config states them: kind, critical_density (g/cm^3) and gamma (used when barotropic). */
+export function eosFromSettings(s: { readonly kind: 'isothermal' | 'barotropic'; readonly critical_density: number; readonly gamma: number }): Eos {
+  return s.kind === 'isothermal' ? { kind: 'isothermal' } : { kind: 'barotropic', criticalDensity: s.critical_density, gamma: s.gamma };
+}
+
 /** Masunaga & Inutsuka (2000) stiffening density, g/cm^3 (value from memory of common use). */
 export const BAROTROPIC_CRITICAL_DENSITY = 1e-13;
 /** Adiabatic index of molecular hydrogen above the stiffening density (common practice). */
