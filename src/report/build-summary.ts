@@ -109,5 +109,6 @@ export function withoutTimings(s: Summary): Omit<Summary, 'timings_s'> {
 
 /** JSON text of a value with 2-space indent and a final newline, non-finite numbers as null. */
 export function jsonText(value: unknown): string {
-  return `${JSON.stringify(value, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2)}\n`;
+  // JSON.stringify writes null for NaN and +-Infinity itself (ECMA-262, SerializeJSONProperty)
+  return `${JSON.stringify(value, null, 2)}\n`;
 }
