@@ -10,7 +10,9 @@
  * a direct one 0.19-0.24 s). Direct I/O needs block-aligned memory, offsets and lengths: the data
  * pass through a page-aligned staging buffer (a WebAssembly memory, which the engine allocates by
  * pages) in 4 MiB chunks, the last one padded with zeros, and the file is cut to its size at the
- * end. Where the file system refuses direct I/O (EINVAL), the file is written the ordinary way.
+ * end. Where the file system refuses direct I/O (EINVAL), or FRAGPLAN_DIRECT_IO=0 is set (on a slow
+ * disk a buffered write returns sooner, the kernel writing it back later), the file is written the
+ * ordinary way.
  */
 import { closeSync, constants, ftruncateSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { createHash, type Hash } from 'node:crypto';
@@ -86,10 +88,10 @@ function digest(hash: Hash, header: Uint8Array, data: Uint8Array): string {
 
 /**
  * Writes header + values (Float32, e.g. on shared memory) to `file` atomically (refuses an existing
- * file without force), with direct I/O unless `direct` is false or refused; returns its sha256 (hex)
- * and size in bytes.
+ * file without force), with direct I/O unless `direct` is false (default: unless FRAGPLAN_DIRECT_IO=0)
+ * or refused; returns its sha256 (hex) and size in bytes.
  */
-export function writeFieldFile(file: string, header: Uint8Array, values: Float32Array, force: boolean, direct = true): WrittenFile {
+export function writeFieldFile(file: string, header: Uint8Array, values: Float32Array, force: boolean, direct = process.env.FRAGPLAN_DIRECT_IO !== '0'): WrittenFile {
   assertWritable(file, force);
   mkdirSync(path.dirname(file), { recursive: true });
   const tmp = tempName(file);
