@@ -197,10 +197,6 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
       ensemble = ensembleSummary(stats);
       timings.ensemble = (performance.now() - t) / 1000;
     }
-    // the threads' work is done: they stop (and free their memory) while the last files are written
-    const closing = threads ? closePlanPools(threads) : null;
-    closing?.catch(() => {}); // awaited below
-    threads = undefined;
 
     const warnings = [...cloud.summary.notes, ...bud.warnings, ...boundButStableWarnings(survey)];
     const summaryWithTimes = (): Summary =>
@@ -235,7 +231,6 @@ export async function runPlan(loaded: LoadedConfig, opts: PlanOptions): Promise<
     timings.write = (performance.now() - t) / 1000;
     const summary = summaryWithTimes();
     put('summary.json', jsonText(summary));
-    await closing;
     return { summary, plots, runDir, files, budget: bud, gridResolution: res };
   } finally {
     if (threads) await closePlanPools(threads);
