@@ -12,6 +12,7 @@ import { parseQuantity, UnitError, type DimensionName } from '../physics/units.j
 import { TOOL_VERSION } from '../version.js';
 import type { PlanPools } from '../pipeline/plan-pools.js';
 import type { Summary } from '../report/summary-types.js';
+import { jsonText } from '../report/build-summary.js';
 
 /** Threads the entry started for `plan` before this module loaded (see src/cli.ts), or null. */
 let earlyPools: PlanPools | null = null;
@@ -50,7 +51,7 @@ function print(text: string): void {
 }
 
 function printJson(value: unknown): void {
-  print(JSON.stringify(value, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2));
+  print(jsonText(value));
 }
 
 /** Prints a plan's or survey's result: summary.json with --json, else the terminal summary and (unless quiet) the files written. */

@@ -15,7 +15,7 @@
  * ordinary way.
  */
 import { closeSync, constants, ftruncateSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
-import { createHash, type Hash } from 'node:crypto';
+import { createHash } from 'node:crypto';
 import path from 'node:path';
 import { assertWritable, tempName } from './atomic-file.js';
 import type { WrittenFile } from './grid-stream.js';
@@ -79,13 +79,6 @@ function openDirect(file: string): number {
   }
 }
 
-/** sha256 (hex) of header then data. */
-function digest(hash: Hash, header: Uint8Array, data: Uint8Array): string {
-  hash.update(header);
-  for (let o = 0; o < data.length; o += CHUNK) hash.update(data.subarray(o, Math.min(data.length, o + CHUNK)));
-  return hash.digest('hex');
-}
-
 /**
  * Writes header + values (Float32, e.g. on shared memory) to `file` atomically (refuses an existing
  * file without force), with direct I/O unless `direct` is false (default: unless FRAGPLAN_DIRECT_IO=0)
@@ -113,5 +106,5 @@ export function writeFieldFile(file: string, header: Uint8Array, values: Float32
     rmSync(tmp, { force: true });
     throw e;
   }
-  return { sha256: digest(createHash('sha256'), header, data), bytes: header.length + data.length };
+  return { sha256: createHash('sha256').update(header).update(data).digest('hex'), bytes: header.length + data.length };
 }
